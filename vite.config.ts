@@ -1,7 +1,7 @@
 import { fileURLToPath } from 'node:url';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
-import { defineConfig } from 'vite';
+import { defineConfig } from 'vitest/config';
 
 const r = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 
@@ -17,6 +17,37 @@ export default defineConfig({
   },
   build: { outDir: 'dist/client', sourcemap: true },
   test: {
-    // see tests/README in DEVELOPERS.md: projects split engine (pure), server (real PostgreSQL), e2e (Chromium)
+    // Three projects: engine (pure, parallel), server (API against a real PostgreSQL cluster
+    // started by the global setup), e2e (the built app driven by Debian's Chromium).
+    projects: [
+      {
+        extends: true,
+        test: { name: 'engine', include: ['tests/engine/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'server',
+          include: ['tests/server/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/server-global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          globalSetup: ['tests/support/e2e-global-setup.ts'],
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 180_000,
+        },
+      },
+    ],
   },
 });
