@@ -17,12 +17,16 @@ export default defineConfig({
   },
   build: { outDir: 'dist/client', sourcemap: true },
   test: {
-    // Three projects: engine (pure, parallel), server (API against a real PostgreSQL cluster
+    // Four projects: engine (pure, parallel), client (pure client logic: plot specs, stale checks), server (API against a real PostgreSQL cluster
     // started by the global setup), e2e (the built app driven by Debian's Chromium).
     projects: [
       {
         extends: true,
         test: { name: 'engine', include: ['tests/engine/**/*.test.ts'], environment: 'node' },
+      },
+      {
+        extends: true,
+        test: { name: 'client', include: ['tests/client/**/*.test.ts'], environment: 'node' },
       },
       {
         extends: true,
