@@ -1,12 +1,6 @@
 import { z } from 'zod';
+import { cellOutputSchema, cellOutputsSchema } from '../cells/output.ts';
 import { documentSchema } from '../editor/document.ts';
-import {
-  continuationResultSchema,
-  engineFieldErrorSchema,
-  equilibriaResultSchema,
-  foldCurveResultSchema,
-  simulateResultSchema,
-} from '../engine/contract.ts';
 
 /**
  * Research-log entries, their revisions, the caller's working draft and cell runs.
@@ -21,8 +15,8 @@ import {
  * GET    /entries/:entryId/revisions                                    -> revisionList (newest first)
  * GET    /entries/:entryId/revisions/:revisionId                        -> revision
  * POST   /entries/:entryId/revisions/:revisionId/restore restoreRevision -> 201 revision | 409 conflictResponse
- * POST   /entries/:entryId/cells/:cellId/run          runCell           -> cellOutput (engine errors are a
- *                                                                          cellOutput with status "error", not an HTTP error)
+ * POST   /entries/:entryId/cells/:cellId/run          runCell           -> runCellResponse (a cell output; engine errors
+ *                                                                          are an output with status "error", not an HTTP error)
  * POST   /api/engine/validate-model                   validateModel     -> validateModelResponse
  *
  * Readers read; researchers and PIs write and run; a person who is not a member gets 404.
@@ -87,42 +81,6 @@ export const personRefSchema = z.object({ id: z.uuid(), name: z.string() });
 export type PersonRef = z.infer<typeof personRefSchema>;
 
 // ---------------------------------------------------------------------------------------------
-// Cell outputs (kept beside the document, keyed by cell id)
-// ---------------------------------------------------------------------------------------------
-
-/** Any engine result; which one follows from the task kind of the cell's request. */
-export const engineResultSchema = z.union([
-  equilibriaResultSchema,
-  continuationResultSchema,
-  foldCurveResultSchema,
-  simulateResultSchema,
-]);
-
-/**
- * What one cell run produced. `inputHash` = sha256 hex of canonicalJson({ engineVersion, model, task })
- * (see shared/cells/hash.ts); a cell is stale when its current request hashes differently.
- */
-export const cellOutputSchema = z.object({
-  inputHash: z.string().regex(/^[0-9a-f]{64}$/, { message: 'An input hash is 64 hexadecimal digits' }),
-  engineVersion: z.string().min(1).max(100),
-  computedAt: z.iso.datetime({ offset: true, message: 'computedAt must be an ISO date-time' }),
-  status: z.enum(['ok', 'error']),
-  result: engineResultSchema.optional(),
-  error: engineFieldErrorSchema.optional(),
-  elapsedMs: z.number().min(0),
-  /** True when the server answered from its store of earlier runs (never stored in revisions as meaningful). */
-  cached: z.boolean().optional(),
-});
-export type CellOutput = z.infer<typeof cellOutputSchema>;
-
-export const outputsSchema = z
-  .record(z.uuid({ message: 'Outputs are keyed by cell id (a UUID)' }), cellOutputSchema)
-  .refine((o) => Object.keys(o).length <= ENTRY_LIMITS.outputsMax, {
-    message: `At most ${ENTRY_LIMITS.outputsMax} cell outputs`,
-  });
-export type CellOutputs = z.infer<typeof outputsSchema>;
-
-// ---------------------------------------------------------------------------------------------
 // Entries
 // ---------------------------------------------------------------------------------------------
 
@@ -171,7 +129,11 @@ const contentShape = {
   entryDate: entryDateSchema,
   tags: tagsSchema,
   document: documentSchema,
-  outputs: outputsSchema.default({}),
+  outputs: cellOutputsSchema
+    .refine((o) => Object.keys(o).length <= ENTRY_LIMITS.outputsMax, {
+      message: `At most ${ENTRY_LIMITS.outputsMax} cell outputs`,
+    })
+    .default({}),
 };
 
 export const revisionSchema = z.object({
@@ -269,6 +231,10 @@ export const runCellSchema = z.object({
   timeLimitMs: z.unknown().optional(),
 });
 export type RunCellInput = z.input<typeof runCellSchema>;
+
+/** A run's answer: the cell output, and whether it came from the store of earlier runs. */
+export const runCellResponseSchema = z.intersection(cellOutputSchema, z.object({ cached: z.boolean() }));
+export type RunCellResponse = z.infer<typeof runCellResponseSchema>;
 
 export const validateModelSchema = z.object({ model: z.unknown() });
 export type ValidateModelInput = z.input<typeof validateModelSchema>;
