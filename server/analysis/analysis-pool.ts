@@ -1,0 +1,105 @@
+import os from 'node:os';
+import { performance } from 'node:perf_hooks';
+import { Piscina } from 'piscina';
+import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
+import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisTask } from './analysis-task.ts';
+
+export interface AnalysisPoolOptions {
+  /** Worker threads (default: cores − 1, at least 1). */
+  maxThreads?: number;
+  /** Runs allowed to wait for a free worker before new ones are refused (default 16). */
+  maxQueue?: number;
+  /** Time past the engine's own budget before a worker is stopped by force (default 2000 ms). */
+  graceMs?: number;
+}
+
+export interface RunOptions {
+  /** The engine's time budget (it stops itself and returns what it has). */
+  budgetMs?: number;
+  /** Stop the worker by force after this long (default budget + grace). */
+  hardLimitMs?: number;
+  /** Aborting it cancels the run (the worker is stopped and replaced). */
+  signal?: AbortSignal;
+}
+
+/** The pool has as many runs waiting as it accepts. */
+export class AnalysisPoolBusyError extends Error {
+  constructor() {
+    super('Every analysis worker is busy and the queue is full; try again in a moment');
+    this.name = 'AnalysisPoolBusyError';
+  }
+}
+
+/**
+ * Engine analyses in worker threads (piscina). A run that goes past its hard limit, or whose
+ * caller aborts, has its worker terminated; piscina starts a fresh one, so a runaway or
+ * crashing analysis never blocks the server. Failures come back as error outcomes, never throws
+ * (except AnalysisPoolBusyError when the queue is full).
+ *
+ * The worker is TypeScript loaded through tsx's loader (`--import tsx`); the server always runs under tsx.
+ */
+export class AnalysisPool {
+  private readonly piscina: Piscina<AnalysisTask, AnalysisOutcome>;
+  private readonly graceMs: number;
+
+  constructor(options: AnalysisPoolOptions = {}) {
+    const threads = options.maxThreads ?? Math.max(1, os.availableParallelism() - 1);
+    this.graceMs = options.graceMs ?? 2000;
+    this.piscina = new Piscina<AnalysisTask, AnalysisOutcome>({
+      filename: new URL('./analysis.worker.ts', import.meta.url).href,
+      execArgv: ['--import', 'tsx'],
+      minThreads: 0,
+      maxThreads: threads,
+      maxQueue: options.maxQueue ?? 16,
+      idleTimeout: 60_000,
+    });
+  }
+
+  async run(request: unknown, options: RunOptions = {}): Promise<AnalysisOutcome> {
+    const budgetMs = Math.min(Math.max(1, options.budgetMs ?? ENGINE_DEFAULTS.timeLimitMs), ENGINE_LIMITS.timeLimitMsMax);
+    const hardLimitMs = options.hardLimitMs ?? budgetMs + this.graceMs;
+    const timeout = AbortSignal.timeout(hardLimitMs);
+    const signal = options.signal ? AbortSignal.any([options.signal, timeout]) : timeout;
+    const started = performance.now();
+    try {
+      return await this.piscina.run({ request, budgetMs }, { signal });
+    } catch (error) {
+      const elapsedMs = Math.round(performance.now() - started);
+      if (error instanceof Error && error.message === 'Task queue is at limit') throw new AnalysisPoolBusyError();
+      if (options.signal?.aborted) {
+        return { status: 'error', error: { code: RUN_ERROR_CODES.cancelled, message: 'The run was cancelled' }, elapsedMs };
+      }
+      if (timeout.aborted) {
+        return {
+          status: 'error',
+          error: {
+            code: RUN_ERROR_CODES.timeLimit,
+            message: `The analysis ran past its time limit (${(hardLimitMs / 1000).toFixed(1)} s) and was stopped; ask for fewer points or a smaller range`,
+          },
+          elapsedMs,
+        };
+      }
+      const message = error instanceof Error ? error.message : String(error);
+      return { status: 'error', error: { code: RUN_ERROR_CODES.crashed, message: `The analysis worker failed: ${message}` }, elapsedMs };
+    }
+  }
+
+  async close(): Promise<void> {
+    await this.piscina.destroy();
+  }
+}
+
+let shared: AnalysisPool | null = null;
+
+/** The server's one pool, created on first use. */
+export function getAnalysisPool(): AnalysisPool {
+  shared ??= new AnalysisPool();
+  return shared;
+}
+
+/** Stops the server's pool (at shutdown and after tests). */
+export async function closeAnalysisPool(): Promise<void> {
+  const pool = shared;
+  shared = null;
+  if (pool) await pool.close();
+}

@@ -1,0 +1,22 @@
+import type { AnalyzeResult, EngineFieldError } from '@shared/engine/contract.ts';
+
+/** What the main thread sends a worker: the engine request as received, and its time budget. */
+export interface AnalysisTask {
+  request: unknown;
+  budgetMs: number;
+}
+
+/** What a worker answers. Request errors are values, never thrown across the thread boundary. */
+export type AnalysisOutcome =
+  | { status: 'ok'; result: AnalyzeResult; elapsedMs: number }
+  | { status: 'error'; error: EngineFieldError; elapsedMs: number };
+
+/** Stable codes of run failures that are not the request's fault. */
+export const RUN_ERROR_CODES = {
+  /** The run went past its hard time limit and the worker was stopped. */
+  timeLimit: 'run_time_limit',
+  /** The worker thread died or the engine failed unexpectedly. */
+  crashed: 'run_failed',
+  /** The caller went away (closed the request) and the run was stopped. */
+  cancelled: 'run_cancelled',
+} as const;

@@ -1,0 +1,86 @@
+import type { DataSource } from 'typeorm';
+import type { RunCellInput, RunCellResponse } from '@shared/api/entries.ts';
+import type { AnalyzeResult } from '@shared/engine/contract.ts';
+import { ENGINE_VERSION } from '@server/engine/version.ts';
+import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
+import type { EntryEntity } from '@server/entities/entry.entity.ts';
+import { presentRunOutcome, presentStoredResult } from '@server/presenters/cell-output.presenter.ts';
+import { recordEvent } from '@server/services/audit/record-event.ts';
+import { requestInputHash } from './request-hash.ts';
+
+/** A run cut short by its time budget depends on the machine's load and the budget: not stored. */
+function stoppedByTimeLimit(result: AnalyzeResult): boolean {
+  const reasons = [
+    'stopReason' in result ? result.stopReason : undefined,
+    'branch' in result ? result.branch.stopReason : undefined,
+    'branch' in result ? result.branch.stopReasonAtStart : undefined,
+    'curve' in result ? result.curve.stopReason : undefined,
+    'curve' in result ? result.curve.stopReasonAtStart : undefined,
+  ];
+  return reasons.includes('time-limit');
+}
+
+export interface RunCellProps {
+  actor: { id: string; name: string };
+  /** The entry the cell belongs to (loaded and authorized for "run"). */
+  entry: EntryEntity;
+  cellId: string;
+  request: RunCellInput;
+  /** Aborted when the caller goes away: the run is cancelled. */
+  signal?: AbortSignal;
+}
+
+/**
+ * Runs a cell's engine request, or answers from the store of earlier runs with the same input
+ * hash. Runs happen outside any transaction (they may take seconds); the result and the audit
+ * event are written together afterwards. Only successful runs are stored; request errors come
+ * back as an error output with the field path. A cancelled run writes nothing.
+ */
+export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool }, props: RunCellProps): Promise<RunCellResponse> {
+  const { model, task, timeLimitMs } = props.request;
+  const inputHash = requestInputHash(ENGINE_VERSION, { model, task });
+  const stored = await deps.dataSource.manager.findOne(AnalysisResultEntity, { where: { inputHash } });
+  if (stored) return presentStoredResult(stored);
+
+  const budgetMs = typeof timeLimitMs === 'number' && Number.isInteger(timeLimitMs) && timeLimitMs > 0 ? timeLimitMs : undefined;
+  const outcome = await deps.pool.run({ model, task, ...(budgetMs ? { timeLimitMs: budgetMs } : {}) }, { budgetMs, signal: props.signal });
+  const computedAt = new Date();
+  const output = presentRunOutcome(outcome, { inputHash, engineVersion: ENGINE_VERSION, computedAt });
+  if (props.signal?.aborted) return output;
+
+  await deps.dataSource.transaction(async (manager) => {
+    if (outcome.status === 'ok' && !stoppedByTimeLimit(outcome.result)) {
+      await manager
+        .createQueryBuilder()
+        .insert()
+        .into(AnalysisResultEntity)
+        .values({
+          inputHash,
+          engineVersion: ENGINE_VERSION,
+          taskKind: typeof task.kind === 'string' ? task.kind : 'unknown',
+          result: outcome.result,
+          elapsedMs: outcome.elapsedMs,
+          computedAt,
+        })
+        .orIgnore()
+        .execute();
+    }
+    await recordEvent(manager, {
+      actorId: props.actor.id,
+      action: 'cell.run',
+      entityType: 'cell',
+      entityId: props.cellId,
+      notebookId: props.entry.notebookId,
+      summary: {
+        entryId: props.entry.id,
+        inputHash,
+        engineVersion: ENGINE_VERSION,
+        status: outcome.status,
+        elapsedMs: outcome.elapsedMs,
+        ...(outcome.status === 'error' ? { errorCode: outcome.error.code } : {}),
+      },
+    });
+  });
+  return output;
+}

@@ -1,0 +1,95 @@
+import type { CellOutputs } from '@shared/cells/output.ts';
+import { documentToPlainText, type DocumentJson } from '@shared/editor/document.ts';
+import { EntryDraftEntity } from '@server/entities/entry-draft.entity.ts';
+import { EntryEntity } from '@server/entities/entry.entity.ts';
+import { RevisionEntity } from '@server/entities/revision.entity.ts';
+import type { RevisionWithAuthor } from '@server/presenters/revision.presenter.ts';
+import { recordEvent } from '@server/services/audit/record-event.ts';
+import type { ActingContext } from '@server/services/entries/service-context.ts';
+import { revisionContentHash } from './content-hash.ts';
+import { pruneOutputs } from './prune-outputs.ts';
+import { RevisionConflictError } from './revision-conflict.error.ts';
+
+export interface RecordRevisionProps {
+  /** The entry, already loaded, authorized and locked (loadEntry with lock: true) in ctx.manager's transaction. */
+  entry: EntryEntity;
+  /** The revision the edit started from; must be the head. Null only for an entry's first revision. */
+  baseRevisionId: string | null;
+  title: string;
+  entryDate: string;
+  tags: string[];
+  document: DocumentJson;
+  outputs: CellOutputs;
+  message?: string | null;
+  /** When this revision restores an older one. */
+  restoredFromId?: string | null;
+}
+
+/** The text the search box looks in: title, tags and the document as plain text. */
+export function searchTextOf(props: { title: string; tags: string[]; document: DocumentJson }): string {
+  return [props.title, props.tags.join(' '), documentToPlainText(props.document)].join('\n');
+}
+
+/** A revision with its author, for presenting. */
+export async function findRevisionWithAuthor(ctx: ActingContext, id: string): Promise<RevisionWithAuthor | null> {
+  return ctx.manager.findOne(RevisionEntity, { where: { id }, relations: { author: true } });
+}
+
+/**
+ * Records a new immutable revision of an entry on top of its head.
+ *
+ * The caller holds the entry row lock, so two saves on the same base cannot both win: the second
+ * sees a different head and gets a RevisionConflictError carrying the current head. Outputs of
+ * cells no longer in the document are dropped. The entry's list columns follow the new head; the
+ * actor's working draft is consumed; an audit event is written in the same transaction.
+ */
+export async function recordRevision(ctx: ActingContext, props: RecordRevisionProps): Promise<RevisionWithAuthor> {
+  const { entry } = props;
+  if (entry.headRevisionId !== props.baseRevisionId) {
+    const head = entry.headRevisionId ? await findRevisionWithAuthor(ctx, entry.headRevisionId) : null;
+    if (!head) throw new Error(`Entry ${entry.id} has no head revision`);
+    throw new RevisionConflictError(head);
+  }
+  const outputs = pruneOutputs(props.document, props.outputs);
+  const content = { title: props.title, entryDate: props.entryDate, tags: props.tags, document: props.document, outputs };
+  const number = entry.revisionCount + 1;
+  const revision = ctx.manager.create(RevisionEntity, {
+    entryId: entry.id,
+    number,
+    parentId: entry.headRevisionId,
+    restoredFromId: props.restoredFromId ?? null,
+    ...content,
+    message: props.message?.trim() ? props.message.trim() : null,
+    authorId: ctx.actor.id,
+    contentHash: revisionContentHash(content),
+  });
+  await ctx.manager.save(revision);
+
+  await ctx.manager.update(EntryEntity, entry.id, {
+    title: content.title,
+    entryDate: content.entryDate,
+    tags: content.tags,
+    headRevisionId: revision.id,
+    revisionCount: number,
+    searchText: searchTextOf(content),
+  });
+  await ctx.manager.delete(EntryDraftEntity, { entryId: entry.id, userId: ctx.actor.id });
+
+  await recordEvent(ctx.manager, {
+    actorId: ctx.actor.id,
+    action: props.restoredFromId ? 'revision.restored' : 'revision.recorded',
+    entityType: 'revision',
+    entityId: revision.id,
+    notebookId: entry.notebookId,
+    summary: {
+      entryId: entry.id,
+      number,
+      parentId: revision.parentId,
+      contentHash: revision.contentHash,
+      ...(props.restoredFromId ? { restoredFromId: props.restoredFromId } : {}),
+    },
+  });
+  const saved = await findRevisionWithAuthor(ctx, revision.id);
+  if (!saved) throw new Error('The recorded revision could not be read back');
+  return saved;
+}
