@@ -1,0 +1,11 @@
+import { AuditEventEntity } from './audit-event.entity.ts';
+import { InviteEntity } from './invite.entity.ts';
+import { MembershipEntity } from './membership.entity.ts';
+import { NotebookEntity } from './notebook.entity.ts';
+import { PasswordResetEntity } from './password-reset.entity.ts';
+import { UserEntity } from './user.entity.ts';
+
+export { AuditEventEntity, InviteEntity, MembershipEntity, NotebookEntity, PasswordResetEntity, UserEntity };
+
+/** Every entity the DataSource knows. Register a new entity with one line here. */
+export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity];
