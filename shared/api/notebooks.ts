@@ -17,12 +17,18 @@ import { emailSchema } from './users.ts';
  */
 export const notebookTitleSchema = z.string().trim().min(1, { message: 'Enter a title' }).max(LIMITS.notebookTitleMax);
 
+export const notebookDescriptionSchema = z
+  .string()
+  .max(LIMITS.notebookDescriptionMax, { message: `Use at most ${LIMITS.notebookDescriptionMax} characters` });
+
 export const createNotebookSchema = z.object({
   title: notebookTitleSchema,
-  description: z.string().max(LIMITS.notebookDescriptionMax).default(''),
+  description: notebookDescriptionSchema.default(''),
 });
 export type CreateNotebookInput = z.infer<typeof createNotebookSchema>;
-export const updateNotebookSchema = createNotebookSchema.partial();
+/** Only the fields sent change (no defaults here: a missing description stays as it is). */
+export const updateNotebookSchema = z.object({ title: notebookTitleSchema, description: notebookDescriptionSchema }).partial();
+export type UpdateNotebookInput = z.infer<typeof updateNotebookSchema>;
 
 export const notebookSummarySchema = z.object({
   id: z.uuid(),

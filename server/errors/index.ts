@@ -1,0 +1,10 @@
+export { ConflictError } from './conflict.error.ts';
+export { CsrfError } from './csrf.error.ts';
+export { ForbiddenError } from './forbidden.error.ts';
+export { HttpError, type FieldProblem } from './http.error.ts';
+export { MalformedJsonError } from './malformed-json.error.ts';
+export { NotFoundError } from './not-found.error.ts';
+export { PayloadTooLargeError } from './payload-too-large.error.ts';
+export { RateLimitedError } from './rate-limited.error.ts';
+export { UnauthenticatedError } from './unauthenticated.error.ts';
+export { ValidationError } from './validation.error.ts';

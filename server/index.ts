@@ -1,0 +1,52 @@
+import 'reflect-metadata';
+import { existsSync } from 'node:fs';
+import type { Server } from 'node:http';
+import path from 'node:path';
+import { createApp, type AppOptions } from './app.ts';
+import { createDataSource } from './data-source.ts';
+import { loadEnvOrExit, type Env } from './env.ts';
+import { createSmtpMailer } from './mail/mailer.ts';
+import { createS3Storage } from './storage/s3-storage.ts';
+
+export interface RunningServer {
+  url: string;
+  port: number;
+  stop(): Promise<void>;
+}
+
+/** Connects to the database, builds the app and listens on 127.0.0.1:PORT (or `host`). */
+export async function startServer(env: Env, options: AppOptions & { host?: string } = {}): Promise<RunningServer> {
+  const dataSource = createDataSource(env.DATABASE_URL);
+  await dataSource.initialize();
+  const mailer = createSmtpMailer(env);
+  const storage = createS3Storage(env);
+  const bifolio = createApp({ env, dataSource, mailer, storage }, options);
+  const server: Server = await new Promise((resolve, reject) => {
+    const s = bifolio.app.listen(env.PORT, options.host ?? '127.0.0.1', (error?: Error) => (error ? reject(error) : resolve(s)));
+  });
+  const address = server.address();
+  const port = typeof address === 'object' && address ? address.port : env.PORT;
+  return {
+    url: env.PUBLIC_URL,
+    port,
+    async stop() {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      await bifolio.close();
+      mailer.close();
+      storage.client.destroy();
+      await dataSource.destroy();
+    },
+  };
+}
+
+const isEntryPoint = process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname);
+if (isEntryPoint) {
+  const env = loadEnvOrExit();
+  const clientDir = path.resolve('dist/client');
+  const running = await startServer(env, { clientDir: existsSync(clientDir) ? clientDir : null, host: process.env.HOST });
+  console.log(`Bifolio API listening on 127.0.0.1:${running.port} (${env.PUBLIC_URL})`);
+  for (const signal of ['SIGINT', 'SIGTERM'] as const) {
+    process.once(signal, () => void running.stop().then(() => process.exit(0)));
+  }
+}

@@ -1,0 +1,4 @@
+import { Foundation1796170000000 } from './1796170000000-Foundation.ts';
+
+/** Every migration, oldest first. Register a new one with one line here. */
+export const MIGRATIONS = [Foundation1796170000000];

@@ -1,0 +1,27 @@
+import type { Router } from 'express';
+import type { RouteDeps } from '@server/app-deps.ts';
+import { authRoutes } from './auth.routes.ts';
+import { healthRoutes } from './health.routes.ts';
+import { invitesRoutes } from './invites.routes.ts';
+import { notebooksRoutes } from './notebooks.routes.ts';
+import { outboxRoutes } from './outbox.routes.ts';
+import { accountRoutes, usersRoutes } from './users.routes.ts';
+
+export interface RouteRegistration {
+  /** Mount path under /api. */
+  path: string;
+  create: (deps: RouteDeps) => Router;
+  /** Mounted only outside production. */
+  devOnly?: boolean;
+}
+
+/** Every API router. Register a new one with one line here. */
+export const API_ROUTES: RouteRegistration[] = [
+  { path: '/health', create: healthRoutes },
+  { path: '/auth', create: authRoutes },
+  { path: '/invites', create: invitesRoutes },
+  { path: '/users', create: usersRoutes },
+  { path: '/account', create: accountRoutes },
+  { path: '/notebooks', create: notebooksRoutes },
+  { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
+];

@@ -1,0 +1,11 @@
+/** Where figures and attachments live. The app depends only on this interface. */
+export interface FileStorage {
+  put(key: string, body: Buffer | Uint8Array | string, contentType: string): Promise<void>;
+  /** The object's bytes, or null when there is none under `key`. */
+  get(key: string): Promise<Buffer | null>;
+  delete(key: string): Promise<void>;
+  /** A time-limited URL to read the object directly. */
+  signedUrl(key: string, expiresInSeconds?: number): Promise<string>;
+  /** Throws when the bucket cannot be reached (for the health check). */
+  check(): Promise<void>;
+}
