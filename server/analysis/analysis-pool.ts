@@ -2,6 +2,7 @@ import os from 'node:os';
 import { performance } from 'node:perf_hooks';
 import { Piscina } from 'piscina';
 import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
+import { HttpError } from '@server/errors/index.ts';
 import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisTask } from './analysis-task.ts';
 
 export interface AnalysisPoolOptions {
@@ -22,11 +23,10 @@ export interface RunOptions {
   signal?: AbortSignal;
 }
 
-/** The pool has as many runs waiting as it accepts. */
-export class AnalysisPoolBusyError extends Error {
+/** 503: the pool has as many runs waiting as it accepts. */
+export class AnalysisPoolBusyError extends HttpError {
   constructor() {
-    super('Every analysis worker is busy and the queue is full; try again in a moment');
-    this.name = 'AnalysisPoolBusyError';
+    super(503, 'analysis_busy', 'Every analysis worker is busy and the queue is full; try again in a moment');
   }
 }
 

@@ -1,11 +1,16 @@
+import { AnalysisResultEntity } from './analysis-result.entity.ts';
 import { AuditEventEntity } from './audit-event.entity.ts';
+import { EntryDraftEntity } from './entry-draft.entity.ts';
+import { EntryEntity } from './entry.entity.ts';
+import { RevisionEntity } from './revision.entity.ts';
 import { InviteEntity } from './invite.entity.ts';
 import { MembershipEntity } from './membership.entity.ts';
 import { NotebookEntity } from './notebook.entity.ts';
 import { PasswordResetEntity } from './password-reset.entity.ts';
 import { UserEntity } from './user.entity.ts';
 
+export { AnalysisResultEntity, EntryDraftEntity, EntryEntity, RevisionEntity };
 export { AuditEventEntity, InviteEntity, MembershipEntity, NotebookEntity, PasswordResetEntity, UserEntity };
 
 /** Every entity the DataSource knows. Register a new entity with one line here. */
-export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity];
+export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity];

@@ -1,4 +1,5 @@
 import { Foundation1796170000000 } from './1796170000000-Foundation.ts';
+import { ResearchLog1796180000000 } from './1796180000000-ResearchLog.ts';
 
 /** Every migration, oldest first. Register a new one with one line here. */
-export const MIGRATIONS = [Foundation1796170000000];
+export const MIGRATIONS = [Foundation1796170000000, ResearchLog1796180000000];

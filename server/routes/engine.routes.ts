@@ -5,7 +5,7 @@ import { validateModel } from '@server/services/analysis/validate-model.ts';
 import { validate } from './pipeline.ts';
 
 /** Engine helpers for any signed-in person. Mounted at /api/engine. */
-export function createEngineRouter(): Router {
+export function engineRoutes(): Router {
   const router = Router();
   router.use(requireUser);
   router.post('/validate-model', (req, res) => {

@@ -1,5 +1,4 @@
 import { Router, type Request } from 'express';
-import type { DataSource } from 'typeorm';
 import {
   createEntrySchema,
   listEntriesQuerySchema,
@@ -8,7 +7,8 @@ import {
   runCellSchema,
   saveDraftSchema,
 } from '@shared/api/entries.ts';
-import { getAnalysisPool, type AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
+import type { RouteDeps } from '@server/app-deps.ts';
 import { ValidationError } from '@server/errors/index.ts';
 import { currentUser, requireUser } from '@server/middlewares/authenticate.ts';
 import { presentDraft, presentEntryDetail, presentEntrySummary } from '@server/presenters/entry.presenter.ts';
@@ -34,9 +34,9 @@ const params = (req: Request) => req.params as Params;
  * /api/notebooks/:notebookId (see shared/api/entries.ts for the contract). Each handler:
  * authenticate → validate → (transaction) → load and authorize → service → present.
  */
-export function createEntriesRouter(dataSource: DataSource, options: { pool?: () => AnalysisPool } = {}): Router {
+export function entriesRoutes(deps: RouteDeps): Router {
   const router = Router({ mergeParams: true });
-  const pool = options.pool ?? getAnalysisPool;
+  const { dataSource } = deps;
   router.use(requireUser);
 
   /** Reads need no transaction. */
@@ -128,7 +128,7 @@ export function createEntriesRouter(dataSource: DataSource, options: { pool?: ()
       if (!res.writableEnded) cancel.abort();
     });
     const output = await runCell(
-      { dataSource, pool: pool() },
+      { dataSource, pool: getAnalysisPool() },
       { actor: ctx.actor, entry, cellId, request: body, signal: cancel.signal },
     );
     if (!cancel.signal.aborted) res.json(output);

@@ -1,6 +1,8 @@
 import type { Router } from 'express';
 import type { RouteDeps } from '@server/app-deps.ts';
 import { authRoutes } from './auth.routes.ts';
+import { engineRoutes } from './engine.routes.ts';
+import { entriesRoutes } from './entries.routes.ts';
 import { healthRoutes } from './health.routes.ts';
 import { invitesRoutes } from './invites.routes.ts';
 import { notebooksRoutes } from './notebooks.routes.ts';
@@ -23,5 +25,7 @@ export const API_ROUTES: RouteRegistration[] = [
   { path: '/users', create: usersRoutes },
   { path: '/account', create: accountRoutes },
   { path: '/notebooks', create: notebooksRoutes },
+  { path: '/notebooks/:notebookId', create: entriesRoutes },
+  { path: '/engine', create: engineRoutes },
   { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
 ];
