@@ -1,0 +1,91 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
+import type { ContinuationResult, SimulateResult } from '@shared/engine/contract.ts';
+
+/**
+ * The worker pool runs real engine analyses in worker threads. Reference values:
+ * the scalar saddle-node x' = μ − x² has equilibria x = ±√μ for μ > 0 and one fold at
+ * μ = 0, x = 0 (closed form; Strogatz, "Nonlinear Dynamics and Chaos", §3.1, the saddle-node
+ * normal form). There f_μ = 1 and f_xx = −2, so with v = w = 1: a = 1, b = −2.
+ */
+const saddleNode = {
+  model: { variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 1 }], definitions: [] },
+  task: { kind: 'continuation', parameter: 'mu', start: { x: 1 }, bounds: { min: -1, max: 2 } },
+};
+
+/**
+ * A stiff decay over a very long span: an explicit integrator's stable step is about 3e-5 here
+ * (common practice: the stability limit of explicit Runge-Kutta), so 1e9 time units need ~1e13 steps.
+ */
+const runaway = {
+  model: { variables: [{ name: 'x', rhs: '-100000 * (x - 1)' }], parameters: [], definitions: [] },
+  task: { kind: 'simulate', initial: { x: 0 }, time: { start: 0, end: 1e9, samples: 1000 }, tolerance: { relative: 1e-12, absolute: 1e-14 } },
+};
+
+describe('AnalysisPool', () => {
+  let pool: AnalysisPool;
+  beforeAll(() => {
+    pool = new AnalysisPool({ maxThreads: 1, maxQueue: 1, graceMs: 500 });
+  });
+  afterAll(async () => {
+    await pool.close();
+  });
+
+  it('runs a continuation in a worker and finds the fold of the saddle-node', async () => {
+    const outcome = await pool.run(saddleNode, { budgetMs: 10_000 });
+    expect(outcome.status).toBe('ok');
+    if (outcome.status !== 'ok') return;
+    const { branch } = outcome.result as ContinuationResult;
+    const folds = branch.events.filter((e) => e.kind === 'fold');
+    expect(folds).toHaveLength(1);
+    expect(folds[0].parameter).toBeCloseTo(0, 6);
+    expect(folds[0].state.x).toBeCloseTo(0, 4);
+    expect(folds[0].normalForm.a).toBeCloseTo(1, 4);
+    expect(folds[0].normalForm.b).toBeCloseTo(-2, 4);
+    expect(outcome.elapsedMs).toBeGreaterThan(0);
+  });
+
+  it('reports a bad request as an error value with the field path', async () => {
+    const outcome = await pool.run({ ...saddleNode, model: { ...saddleNode.model, variables: [{ name: 'x', rhs: 'mu - * x' }] } });
+    expect(outcome.status).toBe('error');
+    if (outcome.status !== 'error') return;
+    expect(outcome.error.path).toBe('model.variables[0].rhs');
+    expect(outcome.error.message.length).toBeGreaterThan(0);
+  });
+
+  it('returns what was computed when the engine budget runs out (stop reason time-limit)', async () => {
+    const outcome = await pool.run(runaway, { budgetMs: 200 });
+    expect(outcome.status).toBe('ok');
+    if (outcome.status !== 'ok') return;
+    expect((outcome.result as SimulateResult).stopReason).toBe('time-limit');
+  });
+
+  it('stops a worker that runs past its hard limit, reports it, and keeps serving', async () => {
+    const started = Date.now();
+    const outcome = await pool.run(runaway, { budgetMs: 60_000, hardLimitMs: 300 });
+    expect(outcome.status).toBe('error');
+    if (outcome.status === 'error') expect(outcome.error.code).toBe(RUN_ERROR_CODES.timeLimit);
+    expect(Date.now() - started).toBeLessThan(5_000);
+    const next = await pool.run(saddleNode);
+    expect(next.status).toBe('ok');
+  });
+
+  it('cancels a run when its signal is aborted', async () => {
+    const cancel = new AbortController();
+    setTimeout(() => cancel.abort(), 200);
+    const outcome = await pool.run(runaway, { budgetMs: 60_000, signal: cancel.signal });
+    expect(outcome.status).toBe('error');
+    if (outcome.status === 'error') expect(outcome.error.code).toBe(RUN_ERROR_CODES.cancelled);
+  });
+
+  it('refuses new runs with a clear error when the queue is full', async () => {
+    const cancel = new AbortController();
+    const busy = pool.run(runaway, { budgetMs: 60_000, signal: cancel.signal });
+    const queued = pool.run(saddleNode);
+    await expect(pool.run(saddleNode)).rejects.toThrow(/busy/);
+    cancel.abort();
+    await busy;
+    expect((await queued).status).toBe('ok');
+  });
+});
