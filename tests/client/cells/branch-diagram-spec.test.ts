@@ -11,7 +11,12 @@ import {
 import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
 import { mirroredSaddleNodeBranch, saddleNodeBranch } from './plot-fixtures.ts';
 
-type Layer = { name?: string; data?: { values: Record<string, unknown>[] }; mark?: unknown; encoding?: Record<string, unknown> };
+type Layer = {
+  name?: string;
+  data?: { values: Record<string, unknown>[] };
+  mark?: unknown;
+  encoding?: Record<string, unknown>;
+};
 
 function layer(spec: unknown, name: string): Layer {
   const found = (spec as { layer: Layer[] }).layer.find((l) => l.name === name);
@@ -37,8 +42,17 @@ describe('splitByStability', () => {
 
   it('starts a new run at each change, even when stability returns to an earlier kind', () => {
     const { branch } = saddleNodeBranch(9);
-    const pts = branch.points.map((p, i) => ({ ...p, stability: (i % 4 < 2 ? 'stable' : 'unstable') as 'stable' | 'unstable' }));
-    expect(splitByStability(pts, 'x').map((s) => s.stability)).toEqual(['stable', 'unstable', 'stable', 'unstable', 'stable']);
+    const pts = branch.points.map((p, i) => ({
+      ...p,
+      stability: (i % 4 < 2 ? 'stable' : 'unstable') as 'stable' | 'unstable',
+    }));
+    expect(splitByStability(pts, 'x').map((s) => s.stability)).toEqual([
+      'stable',
+      'unstable',
+      'stable',
+      'unstable',
+      'stable',
+    ]);
   });
 });
 
@@ -72,7 +86,9 @@ describe('foldPrediction', () => {
 
   it('draws nothing for a degenerate fold', () => {
     const e = saddleNodeBranch().branch.events[0];
-    expect(foldPrediction({ ...e, normalForm: { ...e.normalForm, nondegenerate: false } }, 0, 'x', 1)).toEqual([]);
+    expect(
+      foldPrediction({ ...e, normalForm: { ...e.normalForm, nondegenerate: false } }, 0, 'x', 1),
+    ).toEqual([]);
   });
 });
 
@@ -104,7 +120,13 @@ describe('flowBands', () => {
 
 describe('branchDiagramSpec', () => {
   const result = saddleNodeBranch();
-  const spec = branchDiagramSpec(result, { parameter: 'mu', yVariable: 'x', variables: ['x'], palette: DEFAULT_PALETTE, selectedEvent: 0 });
+  const spec = branchDiagramSpec(result, {
+    parameter: 'mu',
+    yVariable: 'x',
+    variables: ['x'],
+    palette: DEFAULT_PALETTE,
+    selectedEvent: 0,
+  });
 
   it('compiles with vega-lite', () => {
     expect(() => compile(spec)).not.toThrow();
@@ -112,8 +134,13 @@ describe('branchDiagramSpec', () => {
 
   it('draws stable runs solid and unstable runs dashed, in the semantic colours', () => {
     const branch = layer(spec, 'branch');
-    const enc = branch.encoding as { color: { scale: { domain: string[]; range: string[] } }; strokeDash: { scale: { domain: string[]; range: number[][] } } };
-    const dash = Object.fromEntries(enc.strokeDash.scale.domain.map((d, i) => [d, enc.strokeDash.scale.range[i]]));
+    const enc = branch.encoding as {
+      color: { scale: { domain: string[]; range: string[] } };
+      strokeDash: { scale: { domain: string[]; range: number[][] } };
+    };
+    const dash = Object.fromEntries(
+      enc.strokeDash.scale.domain.map((d, i) => [d, enc.strokeDash.scale.range[i]]),
+    );
     expect(dash.stable).toEqual([1, 0]);
     expect(dash.unstable[0]).toBeGreaterThan(1);
     const colour = Object.fromEntries(enc.color.scale.domain.map((d, i) => [d, enc.color.scale.range[i]]));
@@ -141,7 +168,12 @@ describe('branchDiagramSpec', () => {
 
   it('shades the flow only for one-variable models plotted against that variable', () => {
     expect(() => layer(spec, 'flow')).not.toThrow();
-    const two = branchDiagramSpec(result, { parameter: 'mu', yVariable: 'x', variables: ['x', 'y'], palette: DEFAULT_PALETTE });
+    const two = branchDiagramSpec(result, {
+      parameter: 'mu',
+      yVariable: 'x',
+      variables: ['x', 'y'],
+      palette: DEFAULT_PALETTE,
+    });
     expect(() => layer(two, 'flow')).toThrow();
   });
 });

@@ -31,7 +31,8 @@ describe('foldMapSpec', () => {
     expect(() => compile(spec)).not.toThrow();
   });
   it('marks the cusp in words and shades the region', () => {
-    const layers = (spec as unknown as { layer: { name: string; data: { values: { label?: string }[] } }[] }).layer;
+    const layers = (spec as unknown as { layer: { name: string; data: { values: { label?: string }[] } }[] })
+      .layer;
     const cusps = layers.find((l) => l.name === 'cusps')!;
     expect(cusps.data.values[0].label).toBe('cusp  (0, 0)');
     expect(layers.find((l) => l.name === 'region')!.data.values.length).toBeGreaterThan(50);

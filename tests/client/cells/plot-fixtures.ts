@@ -32,7 +32,14 @@ export function saddleNodeBranch(n = 81, muMax = 1): ContinuationResult {
     state: { x: 0 },
     after: (n - 1) / 2 - 1,
     eigenvalues: [{ re: 0, im: 0 }],
-    normalForm: { a: 1, b: -2, nullVector: { x: 1 }, adjointNullVector: { x: 1 }, equilibriaSide: 'above', nondegenerate: true },
+    normalForm: {
+      a: 1,
+      b: -2,
+      nullVector: { x: 1 },
+      adjointNullVector: { x: 1 },
+      equilibriaSide: 'above',
+      nondegenerate: true,
+    },
     residual: 0,
   };
   return {
@@ -45,7 +52,10 @@ export function saddleNodeBranch(n = 81, muMax = 1): ContinuationResult {
 export function mirroredSaddleNodeBranch(): ContinuationResult {
   const r = saddleNodeBranch();
   r.branch.points = r.branch.points.map((p) => ({ ...p, parameter: -p.parameter }));
-  r.branch.events = r.branch.events.map((e) => ({ ...e, normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' } }));
+  r.branch.events = r.branch.events.map((e) => ({
+    ...e,
+    normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' },
+  }));
   return r;
 }
 
@@ -58,7 +68,12 @@ export function cuspFoldCurve(n = 201, xMax = 1): FoldCurveResult {
   const points = [];
   for (let i = 0; i < n; i++) {
     const x = -xMax + (2 * xMax * i) / (n - 1);
-    points.push({ parameters: { r: 3 * x * x, h: -2 * x ** 3 }, state: { x }, normalForm: { a: 1, b: -6 * x }, residual: 0 });
+    points.push({
+      parameters: { r: 3 * x * x, h: -2 * x ** 3 },
+      state: { x },
+      normalForm: { a: 1, b: -6 * x },
+      residual: 0,
+    });
   }
   return {
     curve: {

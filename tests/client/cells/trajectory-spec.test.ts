@@ -33,7 +33,9 @@ describe('trajectory specs', () => {
   });
   it('phase plane follows the circle x² + y² = 1 and marks start and end', () => {
     const spec = phasePlaneSpec(oscillator(50), 'x', 'y', { palette: DEFAULT_PALETTE });
-    const layers = (spec as unknown as { layer: { data: { values: { x: number; y: number; which?: string }[] } }[] }).layer;
+    const layers = (
+      spec as unknown as { layer: { data: { values: { x: number; y: number; which?: string }[] } }[] }
+    ).layer;
     for (const r of layers[0].data.values) expect(r.x * r.x + r.y * r.y).toBeCloseTo(1, 12);
     expect(layers[1].data.values.map((r) => r.which)).toEqual(['start', 'end']);
     expect(() => compile(spec)).not.toThrow();
