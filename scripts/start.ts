@@ -1,0 +1,51 @@
+import 'reflect-metadata';
+import path from 'node:path';
+import { loadEnvOrExit } from '@server/env.ts';
+import { startServer } from '@server/index.ts';
+import { runSeed } from '../seeds/seed.ts';
+import { buildClientIfStale } from './client-build.ts';
+import { demoBanner } from './demo-banner.ts';
+import { migrate, startLocalServices } from './local-services.ts';
+import { PostgresSetupError } from './postgres/postgres-cluster.ts';
+
+/**
+ * `npm start`: local services → migrations → demo seed (once) → client build (when stale)
+ * → the app on one origin. Ctrl-C stops everything this process started.
+ */
+const log = (line: string) => console.log(line);
+const env = loadEnvOrExit();
+const root = process.cwd();
+
+let stopping = false;
+let stopAll: () => Promise<void> = async () => undefined;
+const shutdown = (code: number) => {
+  if (stopping) return;
+  stopping = true;
+  log('\nStopping…');
+  void stopAll().finally(() => {
+    log('Stopped.');
+    process.exit(code);
+  });
+};
+process.once('SIGINT', () => shutdown(0));
+process.once('SIGTERM', () => shutdown(0));
+
+try {
+  const services = await startLocalServices(env, log);
+  stopAll = services.stop;
+  const dataSource = await migrate(env, log);
+  await runSeed(dataSource, log);
+  await dataSource.destroy();
+  const clientDir = path.join(root, 'dist/client');
+  buildClientIfStale(root, clientDir, log);
+  const server = await startServer(env, { clientDir });
+  stopAll = async () => {
+    await server.stop();
+    await services.stop();
+  };
+  log(demoBanner(env.PUBLIC_URL));
+} catch (error) {
+  const known = error instanceof PostgresSetupError || (error as Error).name === 'LocalServiceError';
+  console.error(known ? `\n${(error as Error).message}` : error);
+  shutdown(1);
+}
