@@ -98,6 +98,24 @@ function UserMenu({
   );
 }
 
+/** The top bar: the mark (linking home), then whatever the page puts beside it. */
+export function SiteHeader({ children }: { children: ReactNode }) {
+  return (
+    <header className="border-b border-rule bg-surface">
+      <div className="mx-auto flex max-w-6xl items-center gap-4 px-4 py-2.5 sm:px-6">
+        <Link
+          to={paths.notebooks.getHref()}
+          className="rounded-md no-underline"
+          aria-label="Bifolio: your notebooks"
+        >
+          <Wordmark />
+        </Link>
+        {children}
+      </div>
+    </header>
+  );
+}
+
 /** Header with the mark, the main navigation and the person's menu; the caution in the footer. */
 export function AppShell({
   user,
@@ -121,38 +139,29 @@ export function AppShell({
       >
         Skip to content
       </a>
-      <header className="border-b border-rule bg-surface">
-        <div className="mx-auto flex max-w-6xl items-center gap-4 px-4 py-2.5 sm:px-6">
-          <Link
-            to={paths.notebooks.getHref()}
-            className="rounded-md no-underline"
-            aria-label="Bifolio: your notebooks"
-          >
-            <Wordmark />
-          </Link>
-          <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
-            <NavLink to={paths.notebooks.getHref()} end className={navClass}>
-              Notebooks
-            </NavLink>
-            {admin && (
-              <>
-                <NavLink to={paths.adminUsers.getHref()} className={navClass}>
-                  People
-                </NavLink>
-                <NavLink to={paths.adminInvites.getHref()} className={navClass}>
-                  Invites
-                </NavLink>
-              </>
-            )}
-            {showOutbox && (
-              <NavLink to={paths.outbox.getHref()} className={navClass}>
-                Outbox
+      <SiteHeader>
+        <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
+          <NavLink to={paths.notebooks.getHref()} end className={navClass}>
+            Notebooks
+          </NavLink>
+          {admin && (
+            <>
+              <NavLink to={paths.adminUsers.getHref()} className={navClass}>
+                People
               </NavLink>
-            )}
-          </nav>
-          <UserMenu user={user} onSignOut={onSignOut} signingOut={signingOut} />
-        </div>
-      </header>
+              <NavLink to={paths.adminInvites.getHref()} className={navClass}>
+                Invites
+              </NavLink>
+            </>
+          )}
+          {showOutbox && (
+            <NavLink to={paths.outbox.getHref()} className={navClass}>
+              Outbox
+            </NavLink>
+          )}
+        </nav>
+        <UserMenu user={user} onSignOut={onSignOut} signingOut={signingOut} />
+      </SiteHeader>
       <main
         id="main"
         tabIndex={-1}

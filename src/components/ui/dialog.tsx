@@ -1,5 +1,5 @@
-import { useEffect, useId, useRef, type ReactNode } from 'react';
-import { buttonClass, Spinner } from './button.tsx';
+import { useEffect, useId, useRef, useState, type ReactNode } from 'react';
+import { Button, buttonClass, Spinner, type ButtonVariant } from './button.tsx';
 
 type DialogProps = {
   open: boolean;
@@ -94,5 +94,49 @@ export function DialogActions({
         {submitLabel}
       </button>
     </div>
+  );
+}
+
+type ConfirmButtonProps = {
+  /** What the button says, and an accessible name naming what it acts on. */
+  label: string;
+  accessibleLabel?: string;
+  variant?: ButtonVariant;
+  disabled?: boolean;
+  title: string;
+  description: string;
+  keepLabel: string;
+  confirmLabel: string;
+  busy?: boolean;
+  /** Called on confirmation with a function that closes the dialog. */
+  onConfirm: (close: () => void) => void;
+};
+
+/** A button that asks before doing something hard to undo. */
+export function ConfirmButton(props: ConfirmButtonProps) {
+  const [open, setOpen] = useState(false);
+  const close = () => setOpen(false);
+  return (
+    <>
+      <Button
+        size="sm"
+        variant={props.variant ?? 'danger'}
+        disabled={props.disabled}
+        onClick={() => setOpen(true)}
+        aria-label={props.accessibleLabel}
+      >
+        {props.label}
+      </Button>
+      <Dialog open={open} onClose={close} title={props.title} description={props.description}>
+        <div className="flex justify-end gap-2">
+          <Button variant="secondary" onClick={close}>
+            {props.keepLabel}
+          </Button>
+          <Button variant="danger" busy={props.busy} onClick={() => props.onConfirm(close)}>
+            {props.confirmLabel}
+          </Button>
+        </div>
+      </Dialog>
+    </>
   );
 }

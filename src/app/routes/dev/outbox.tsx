@@ -1,7 +1,6 @@
-import { Link, Outlet, useParams } from 'react-router';
-import { paths } from '@/config/paths.ts';
+import { Outlet, useParams } from 'react-router';
+import { SiteHeader } from '@/components/ui/app-shell.tsx';
 import { CautionFooter } from '@/components/ui/caution.tsx';
-import { Wordmark } from '@/components/ui/logo.tsx';
 import { ThemeToggle } from '@/components/ui/theme-toggle.tsx';
 import { OutboxList } from '@/features/outbox/components/outbox-list.tsx';
 import { useDocumentTitle } from '@/lib/use-document-title.ts';
@@ -12,19 +11,10 @@ export default function OutboxRoute() {
   const { messageId } = useParams();
   return (
     <div className="flex min-h-screen flex-col bg-paper">
-      <header className="border-b border-rule bg-surface">
-        <div className="mx-auto flex max-w-6xl items-center gap-4 px-4 py-2.5 sm:px-6">
-          <Link
-            to={paths.notebooks.getHref()}
-            className="rounded-md no-underline"
-            aria-label="Bifolio: your notebooks"
-          >
-            <Wordmark />
-          </Link>
-          <span className="flex-1 text-sm text-ink-muted">Local outbox</span>
-          <ThemeToggle />
-        </div>
-      </header>
+      <SiteHeader>
+        <span className="flex-1 text-sm text-ink-muted">Local outbox</span>
+        <ThemeToggle />
+      </SiteHeader>
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-8 sm:px-6">
         <h1 className="font-serif text-3xl font-bold text-ink">Outbox</h1>
         <p className="mt-2 mb-6 max-w-prose font-serif text-sm text-ink-muted">

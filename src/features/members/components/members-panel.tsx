@@ -3,7 +3,7 @@ import { NOTEBOOK_ROLES, NOTEBOOK_ROLE_LABELS, type NotebookRole } from '@shared
 import type { Member } from '@shared/api/notebooks.ts';
 import { NotebookRoleBadge } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
-import { Dialog, DialogActions } from '@/components/ui/dialog.tsx';
+import { ConfirmButton, Dialog, DialogActions } from '@/components/ui/dialog.tsx';
 import { Field } from '@/components/ui/field.tsx';
 import { FormAlert, useZodForm } from '@/components/ui/form.tsx';
 import { Input, Select } from '@/components/ui/input.tsx';
@@ -74,7 +74,6 @@ function MemberRow({
 }) {
   const change = useChangeMemberRole(notebookId);
   const remove = useRemoveMember(notebookId);
-  const [confirming, setConfirming] = useState(false);
   const fail = (e: unknown) => toast.error('Not changed', e instanceof ApiError ? e.message : undefined);
   return (
     <li className="flex flex-wrap items-center gap-3 py-3">
@@ -103,38 +102,17 @@ function MemberRow({
               )
             }
           />
-          <Button
+          <ConfirmButton
             variant="quiet"
-            size="sm"
-            onClick={() => setConfirming(true)}
-            aria-label={`Remove ${member.name}`}
-          >
-            Remove
-          </Button>
-          <Dialog
-            open={confirming}
-            onClose={() => setConfirming(false)}
+            label="Remove"
+            accessibleLabel={`Remove ${member.name}`}
             title={`Remove ${member.name}?`}
             description="They will no longer see this notebook. Their past entries and signatures stay in the record."
-          >
-            <div className="flex justify-end gap-2">
-              <Button variant="secondary" onClick={() => setConfirming(false)}>
-                Keep
-              </Button>
-              <Button
-                variant="danger"
-                busy={remove.isPending}
-                onClick={() =>
-                  remove.mutate(member.userId, {
-                    onSuccess: () => setConfirming(false),
-                    onError: (e) => (setConfirming(false), fail(e)),
-                  })
-                }
-              >
-                Remove from notebook
-              </Button>
-            </div>
-          </Dialog>
+            keepLabel="Keep"
+            confirmLabel="Remove from notebook"
+            busy={remove.isPending}
+            onConfirm={(close) => remove.mutate(member.userId, { onSettled: close, onError: fail })}
+          />
         </>
       ) : (
         <NotebookRoleBadge role={member.role} />

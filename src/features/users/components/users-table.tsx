@@ -1,9 +1,8 @@
-import { useState } from 'react';
 import { SITE_ROLES, SITE_ROLE_LABELS, type SiteRole } from '@shared/domain/roles.ts';
 import type { User } from '@shared/api/users.ts';
 import { ActiveBadge } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
-import { Dialog } from '@/components/ui/dialog.tsx';
+import { ConfirmButton } from '@/components/ui/dialog.tsx';
 import { Select } from '@/components/ui/input.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
 import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
@@ -43,7 +42,6 @@ function SiteRoleSelect({ user, disabled }: { user: User; disabled: boolean }) {
 
 function ActiveToggle({ user, disabled }: { user: User; disabled: boolean }) {
   const update = useUpdateUser();
-  const [confirming, setConfirming] = useState(false);
   if (!user.active)
     return (
       <Button
@@ -57,41 +55,19 @@ function ActiveToggle({ user, disabled }: { user: User; disabled: boolean }) {
       </Button>
     );
   return (
-    <>
-      <Button
-        size="sm"
-        variant="danger"
-        disabled={disabled}
-        onClick={() => setConfirming(true)}
-        aria-label={`Deactivate ${user.name}`}
-      >
-        Deactivate
-      </Button>
-      <Dialog
-        open={confirming}
-        onClose={() => setConfirming(false)}
-        title={`Deactivate ${user.name}?`}
-        description="They can no longer sign in. Their entries, revisions and signatures stay in the record, and you can reactivate them later."
-      >
-        <div className="flex justify-end gap-2">
-          <Button variant="secondary" onClick={() => setConfirming(false)}>
-            Keep active
-          </Button>
-          <Button
-            variant="danger"
-            busy={update.isPending}
-            onClick={() =>
-              update.mutate(
-                { id: user.id, active: false },
-                { onSettled: () => setConfirming(false), onError: fail },
-              )
-            }
-          >
-            Deactivate
-          </Button>
-        </div>
-      </Dialog>
-    </>
+    <ConfirmButton
+      label="Deactivate"
+      accessibleLabel={`Deactivate ${user.name}`}
+      disabled={disabled}
+      title={`Deactivate ${user.name}?`}
+      description="They can no longer sign in. Their entries, revisions and signatures stay in the record, and you can reactivate them later."
+      keepLabel="Keep active"
+      confirmLabel="Deactivate"
+      busy={update.isPending}
+      onConfirm={(close) =>
+        update.mutate({ id: user.id, active: false }, { onSettled: close, onError: fail })
+      }
+    />
   );
 }
 
