@@ -1,0 +1,142 @@
+import 'reflect-metadata';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { simpleParser, type ParsedMail } from 'mailparser';
+import request from 'supertest';
+import type { DataSource } from 'typeorm';
+import { inject } from 'vitest';
+import type { NotebookRole, SiteRole } from '@shared/domain/roles.ts';
+import { startFakeS3, type FakeS3 } from '../../fake-s3/start-fake-s3.ts';
+import { createApp, type AppOptions, type BifolioApp } from '@server/app.ts';
+import { createDataSource } from '@server/data-source.ts';
+import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
+import type { UserEntity } from '@server/entities/user.entity.ts';
+import { parseEnv, type Env } from '@server/env.ts';
+import { createSmtpMailer, type Mailer } from '@server/mail/mailer.ts';
+import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
+import { addMember } from '@server/services/members/add-member.ts';
+import { createNotebook } from '@server/services/notebooks/create-notebook.ts';
+import { createUser } from '@server/services/users/create-user.ts';
+import { createS3Storage } from '@server/storage/s3-storage.ts';
+import { freePort } from './free-port.ts';
+
+export const TEST_PUBLIC_URL = 'http://127.0.0.1:4800';
+
+export interface TestApp {
+  app: BifolioApp['app'];
+  dataSource: DataSource;
+  env: Env;
+  sink: SmtpSink;
+  mailer: Mailer;
+  /** The next message to `to` that arrives after `since` (ms since epoch). */
+  waitForMail(to: string, since?: number, timeoutMs?: number): Promise<ParsedMail>;
+  close(): Promise<void>;
+}
+
+/**
+ * The real app against the run's test database, with an in-process SMTP sink and S3 fake
+ * on free ports. One per test file (beforeAll/afterAll).
+ */
+export async function createTestApp(options: AppOptions & { mailer?: Mailer } = {}): Promise<TestApp> {
+  const tmp = mkdtempSync(path.join(os.tmpdir(), 'bifolio-app-'));
+  const [smtpPort, s3Port] = [await freePort(), await freePort()];
+  const env = parseEnv({
+    NODE_ENV: 'test',
+    DATABASE_URL: inject('databaseUrl'),
+    PUBLIC_URL: TEST_PUBLIC_URL,
+    S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
+    SMTP_PORT: String(smtpPort),
+    BIFOLIO_DATA_DIR: tmp,
+  });
+  const sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+  const s3: FakeS3 = await startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+  const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
+  const mailer = options.mailer ?? createSmtpMailer(env);
+  const storage = createS3Storage(env);
+  const bifolio = createApp({ env, dataSource, mailer, storage }, { sessionPruneSeconds: false, ...options });
+
+  async function waitForMail(to: string, since = 0, timeoutMs = 10_000): Promise<ParsedMail> {
+    const deadline = Date.now() + timeoutMs;
+    const seen = new Set<string>();
+    while (Date.now() < deadline) {
+      for (const file of readdirSync(env.OUTBOX_DIR).sort()) {
+        if (seen.has(file)) continue;
+        seen.add(file);
+        const full = path.join(env.OUTBOX_DIR, file);
+        const mail = await simpleParser(readFileSync(full));
+        const recipients = [mail.to].flat().flatMap((a) => a?.value.map((v) => v.address) ?? []);
+        if (recipients.includes(to) && (mail.date?.getTime() ?? Date.now()) >= since - 1000) return mail;
+      }
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    throw new Error(`No mail to ${to} arrived within ${timeoutMs} ms`);
+  }
+
+  return {
+    app: bifolio.app,
+    dataSource,
+    env,
+    sink,
+    mailer,
+    waitForMail,
+    async close() {
+      await bifolio.close();
+      mailer.close();
+      storage.client.destroy();
+      await dataSource.destroy();
+      await sink.close();
+      await s3.close();
+      rmSync(tmp, { recursive: true, force: true });
+    },
+  };
+}
+
+export type Agent = ReturnType<typeof request.agent>;
+
+/** A cookie-keeping client with the session's CSRF token. */
+export async function newAgent(app: TestApp['app']): Promise<{ agent: Agent; csrf: string }> {
+  const agent = request.agent(app);
+  const res = await agent.get('/api/auth/csrf').expect(200);
+  return { agent, csrf: res.body.csrfToken as string };
+}
+
+/** Signs in (fetching the CSRF token first) and returns the agent and token for later writes. */
+export async function signIn(app: TestApp['app'], person: { email: string; password: string }): Promise<{ agent: Agent; csrf: string }> {
+  const { agent, csrf } = await newAgent(app);
+  const res = await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email: person.email, password: person.password });
+  if (res.status !== 200) throw new Error(`sign-in as ${person.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { agent, csrf };
+}
+
+let counter = 0;
+export const uniqueEmail = (label: string) => `${label}.${Date.now().toString(36)}${(counter++).toString(36)}@test.example`;
+
+export interface TestPerson {
+  user: UserEntity;
+  email: string;
+  password: string;
+}
+
+/** A new account with a known password. */
+export async function makeUser(dataSource: DataSource, props: { label?: string; siteRole?: SiteRole } = {}): Promise<TestPerson> {
+  const email = uniqueEmail(props.label ?? 'person');
+  const password = `pw-${email}`;
+  const user = await dataSource.transaction((manager) =>
+    createUser({ actor: null, manager }, { email, name: `Test ${props.label ?? 'person'}`, password, siteRole: props.siteRole ?? 'member', via: 'test' }),
+  );
+  return { user, email, password };
+}
+
+/** A notebook whose PI is `pi`, with the other members added. */
+export async function makeNotebook(
+  dataSource: DataSource,
+  pi: UserEntity,
+  members: { user: UserEntity; role: NotebookRole }[] = [],
+): Promise<NotebookEntity> {
+  return dataSource.transaction(async (manager) => {
+    const { notebook } = await createNotebook({ actor: pi, manager }, { title: `Test notebook ${uniqueEmail('nb')}`, description: '' });
+    for (const m of members) await addMember({ actor: pi, manager }, { notebookId: notebook.id, email: m.user.email, role: m.role });
+    return notebook;
+  });
+}
