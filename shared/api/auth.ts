@@ -14,7 +14,7 @@ import { emailSchema, passwordSchema, personNameSchema, userSchema } from './use
  * POST /api/auth/password-reset/complete completeReset -> 204 | 400 (expired or used token)
  * GET  /api/invites/:token                 -> inviteLookup | 404
  * POST /api/invites/:token/accept acceptInvite -> meResponse (signed in)
- * POST /api/invites (administrator) createInvite -> invite
+ * POST /api/invites (administrator) createInvite -> createdInvite (201; mailSent false when the mail could not be sent)
  * GET  /api/invites (administrator)        -> { invites: invite[] }
  */
 export const csrfResponseSchema = z.object({ csrfToken: z.string() });
@@ -50,6 +50,9 @@ export const inviteSchema = z.object({
   createdAt: z.string(),
 });
 export type Invite = z.infer<typeof inviteSchema>;
+/** The answer to createInvite: the invite, and whether its mail went out (the invite stands either way). */
+export const createdInviteSchema = inviteSchema.extend({ mailSent: z.boolean() });
+export type CreatedInvite = z.infer<typeof createdInviteSchema>;
 
 export const inviteLookupSchema = z.object({ email: z.string(), name: z.string(), expiresAt: z.string() });
 export const acceptInviteSchema = z.object({ password: passwordSchema, name: personNameSchema.optional() });

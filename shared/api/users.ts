@@ -9,6 +9,16 @@ export const passwordSchema = z
   .max(LIMITS.passwordMax, { message: `Use at most ${LIMITS.passwordMax} characters` });
 export const personNameSchema = z.string().trim().min(1, { message: 'Enter a name' }).max(LIMITS.nameMax);
 
+/**
+ * People and the signed-in person's own account.
+ *
+ * GET   /api/users (administrator)            -> { users: user[] }
+ * PATCH /api/users/:id (administrator) updateUser -> user | 409 (the last active administrator cannot be demoted or deactivated)
+ * PATCH /api/account           updateAccount  -> user
+ * POST  /api/account/password  changePassword -> 204 | 400 (currentPassword wrong)
+ * GET   /api/health                           -> { ok, database, storage } (200 or 503)
+ */
+
 /** A person as the API presents them (never the password hash). */
 export const userSchema = z.object({
   id: z.uuid(),
