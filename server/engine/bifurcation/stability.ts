@@ -1,0 +1,37 @@
+import type { Eigenvalue, Stability } from '@shared/engine/contract.ts';
+import type { Tolerances } from '../defaults.ts';
+import { eigenvalues } from '../linalg/eigen.ts';
+
+export interface StabilityInfo {
+  stability: Stability;
+  eigenvalues: Eigenvalue[];
+  unstableDimension: number;
+}
+
+/**
+ * Linear stability of an equilibrium from the eigenvalues of its Jacobian (Lyapunov's indirect
+ * method; Kuznetsov, Elements of Applied Bifurcation Theory, §1.5; Strogatz, Nonlinear Dynamics
+ * and Chaos, §6.3): "stable" when every Re λ < −tol, "unstable" when some Re λ > tol, otherwise
+ * "neutral" (linearisation inconclusive), tol = neutral·max(1, max|λ|). Eigenvalues are sorted by
+ * decreasing real part, then decreasing imaginary part; unstableDimension counts Re λ > tol.
+ */
+export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances): StabilityInfo {
+  const e = eigenvalues(jacobian, n, tol.eigenMaxIterations);
+  const list: Eigenvalue[] = [];
+  let largest = 0;
+  for (let i = 0; i < n; i++) {
+    // Exact zeros print as 0, not -0.
+    list.push({ re: e.re[i] + 0, im: e.im[i] + 0 });
+    largest = Math.max(largest, Math.hypot(e.re[i], e.im[i]));
+  }
+  list.sort((a, b) => b.re - a.re || b.im - a.im);
+  const threshold = tol.neutral * Math.max(1, largest);
+  let unstable = 0;
+  let neutral = 0;
+  for (const l of list) {
+    if (l.re > threshold) unstable++;
+    else if (!(l.re < -threshold)) neutral++;
+  }
+  const stability: Stability = unstable > 0 ? 'unstable' : neutral > 0 || !e.converged ? 'neutral' : 'stable';
+  return { stability, eigenvalues: list, unstableDimension: unstable };
+}

@@ -1,0 +1,118 @@
+import { ENGINE_ERROR_CODES, type CuspEvent, type FoldCurve, type FoldCurvePoint, type FoldCurveTask } from '@shared/engine/contract.ts';
+import { EngineRequestError } from '../errors.ts';
+import { locateAlongCurve } from '../bifurcation/cusp.ts';
+import { locateFold } from '../bifurcation/fold.ts';
+import { FoldSystem } from '../bifurcation/fold-system.ts';
+import { foldCoefficients, foldNormalForm } from '../bifurcation/normal-form.ts';
+import { followCurve, type FollowResult } from '../continuation/pseudo-arclength.ts';
+import { luFactor, luSolve } from '../linalg/lu.ts';
+import { norm2, normInf } from '../linalg/vector.ts';
+import type { CompiledModel } from '../model/compile.ts';
+import { convergeStart, followBothWays } from './continuation.ts';
+import { pastDeadline, type TaskContext } from './context.ts';
+import { named, parameterIndex, vectorFrom } from './present.ts';
+
+/**
+ * Approximate null vector of a (nearly) singular matrix by inverse iteration with a tiny shift
+ * (Golub & Van Loan, Matrix Computations, §7.6.1).
+ */
+export function nullVectorEstimate(jac: Float64Array, n: number): Float64Array {
+  const shifted = jac.slice();
+  const size = Math.max(normInf(jac), 1e-300);
+  for (let i = 0; i < n; i++) shifted[i * n + i] += 1e-10 * size;
+  const lu = luFactor(shifted, n, true);
+  let v = Float64Array.from({ length: n }, (_, i) => 1 + i / (n + 1));
+  for (let it = 0; it < 4; it++) {
+    const z = luSolve(lu, v);
+    const len = norm2(z);
+    if (!(len > 0) || !Number.isFinite(len)) break;
+    v = z.map((c) => c / len);
+  }
+  return v;
+}
+
+/**
+ * A fold followed in two parameters (μ, κ) = task.parameters on the standard extended system
+ * (x, v, μ, κ) by pseudo-arclength continuation. Each point carries its normal-form a, b
+ * (product convention); cusps are where b, computed with the null vector carried continuously
+ * along the curve, changes sign, located along the curve.
+ */
+export function runFoldCurve(model: CompiledModel, task: FoldCurveTask, ctx: TaskContext): FoldCurve {
+  const n = model.n;
+  const [name1, name2] = task.parameters;
+  const k1 = parameterIndex(model, name1, 'task.parameters[0]');
+  const k2 = parameterIndex(model, name2, 'task.parameters[1]');
+  for (const key of Object.keys(task.bounds))
+    if (key !== name1 && key !== name2)
+      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.unknownReference, message: `"${key}" is not one of the two continued parameters (${name1}, ${name2})`, path: `task.bounds.${key}` });
+  for (const name of task.parameters)
+    if (!task.bounds[name])
+      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.invalidRequest, message: `Give bounds for ${name}, e.g. "${name}": [-1, 1]`, path: `task.bounds.${name}` });
+  const p = vectorFrom(model.parameters, task.start.parameters, 'task.start.parameters', 'parameter', model.parameterValues());
+  for (const [k, name] of [[k1, name1], [k2, name2]] as const) {
+    const [lo, hi] = task.bounds[name];
+    if (p[k] < lo || p[k] > hi)
+      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.invalidRequest, message: `The start value of ${name} (${p[k]}) lies outside its bounds [${lo}, ${hi}]`, path: `task.bounds.${name}` });
+  }
+  const guess = vectorFrom(model.variables, task.start.state, 'task.start.state', 'variable');
+  const x0 = convergeStart(model, guess, p, ctx)?.y ?? guess;
+  const jac = new Float64Array(n * n);
+  model.jacobian(x0, p, jac);
+  const fold = locateFold(model, k1, p, x0, nullVectorEstimate(jac, n), p[k1], ctx.tolerances);
+  if (!fold.converged) return { points: [], events: [], stopReason: 'start-not-converged' };
+
+  const system = new FoldSystem(model, k1, p, k2);
+  const y0 = new Float64Array(2 * n + 2);
+  y0.set(fold.x, 0);
+  y0.set(fold.v, n);
+  y0[2 * n] = fold.parameter;
+  y0[2 * n + 1] = p[k2];
+  const bounds = [
+    { index: 2 * n, min: task.bounds[name1][0], max: task.bounds[name1][1] },
+    { index: 2 * n + 1, min: task.bounds[name2][0], max: task.bounds[name2][1] },
+  ];
+  const follow = (sign: number, maxPoints: number): FollowResult => {
+    const e = new Float64Array(2 * n + 2);
+    e[2 * n + 1] = sign;
+    const r = followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances });
+    if (r.points.length > 0) return r;
+    e[2 * n + 1] = 0;
+    e[2 * n] = sign;
+    return followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances });
+  };
+  const traced = followBothWays(follow, task.direction, task.maxPoints);
+  let stopReason = traced.stopReason;
+
+  const points: FoldCurvePoint[] = [];
+  const continuousB: number[] = [];
+  let bScale = 0;
+  for (const pt of traced.points) {
+    if (pastDeadline(ctx)) {
+      stopReason = 'time-limit';
+      break;
+    }
+    const pp = system.parametersAt(pt.y).slice();
+    const x = pt.y.slice(0, n);
+    const v = pt.y.slice(n, 2 * n);
+    const nf = foldNormalForm(model, x, pp, k1, v, ctx.tolerances);
+    const raw = foldCoefficients(model, x, pp, k1, v, ctx.tolerances);
+    continuousB.push(raw.b);
+    bScale = Math.max(bScale, Math.abs(raw.b));
+    points.push({ parameters: { [name1]: pt.y[2 * n], [name2]: pt.y[2 * n + 1] }, state: named(model.variables, x), normalForm: { a: nf.a, b: nf.b }, residual: pt.residual });
+  }
+  const events: CuspEvent[] = [];
+  for (let i = 0; i + 1 < points.length; i++) {
+    if (!(continuousB[i] * continuousB[i + 1] < 0) || pastDeadline(ctx)) continue;
+    const a = traced.points[i];
+    const testB = (y: Float64Array) => {
+      const pp = system.parametersAt(y).slice();
+      return foldCoefficients(model, y.slice(0, n), pp, k1, y.slice(n, 2 * n), ctx.tolerances).b;
+    };
+    const z = locateAlongCurve(system, a.y, a.tangent, traced.points[i + 1].y, testB, Math.max(bScale, 1e-300), ctx.tolerances);
+    if (!z) continue;
+    events.push({ kind: 'cusp', parameters: { [name1]: z[2 * n], [name2]: z[2 * n + 1] }, state: named(model.variables, z), after: i });
+  }
+  const curve: FoldCurve = { points, events, stopReason };
+  if (traced.stopReasonAtStart) curve.stopReasonAtStart = traced.stopReasonAtStart;
+  return curve;
+}
