@@ -12,6 +12,7 @@ import { createCsrf } from './middlewares/csrf.ts';
 import { apiNotFound, errorHandler } from './middlewares/error-handler.ts';
 import { DEFAULT_RATE_LIMITS, createRateLimits, type RateLimitSettings } from './middlewares/rate-limits.ts';
 import { API_ROUTES } from './routes/index.ts';
+import { NotFoundError } from './errors/index.ts';
 
 export const SESSION_COOKIE = 'bifolio.sid';
 const SESSION_MAX_AGE_MS = 12 * 3600_000;
@@ -96,7 +97,8 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): BifolioApp {
 
   const clientDir = options.clientDir;
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
-    app.use('/assets', express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y', fallthrough: false }));
+    app.use('/assets', express.static(path.join(clientDir, 'assets'), { immutable: true, maxAge: '1y' }));
+    app.use('/assets', (_req, _res, next) => next(new NotFoundError('No such file')));
     app.use(express.static(clientDir, { index: false }));
     app.get('/{*splat}', (_req, res) => {
       res.setHeader('Cache-Control', 'no-cache');

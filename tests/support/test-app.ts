@@ -38,7 +38,7 @@ export interface TestApp {
  * The real app against the run's test database, with an in-process SMTP sink and S3 fake
  * on free ports. One per test file (beforeAll/afterAll).
  */
-export async function createTestApp(options: AppOptions & { mailer?: Mailer } = {}): Promise<TestApp> {
+export async function createTestApp(options: AppOptions & { mailer?: Mailer; env?: Record<string, string> } = {}): Promise<TestApp> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'bifolio-app-'));
   const [smtpPort, s3Port] = [await freePort(), await freePort()];
   const env = parseEnv({
@@ -48,6 +48,7 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer } = 
     S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
     SMTP_PORT: String(smtpPort),
     BIFOLIO_DATA_DIR: tmp,
+    ...options.env,
   });
   const sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
   const s3: FakeS3 = await startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
