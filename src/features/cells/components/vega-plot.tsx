@@ -1,0 +1,25 @@
+import { VegaEmbed } from 'react-vega';
+import type { Result, VisualizationSpec } from 'vega-embed';
+
+export type PlotClick = (datum: Record<string, unknown>) => void;
+
+/** The vega renderer itself; loaded only through LazyPlot, so vega's code is fetched when a plot is on screen. */
+export default function VegaPlot({ spec, label, onClickDatum }: { spec: VisualizationSpec; label: string; onClickDatum?: PlotClick }) {
+  const onEmbed = (result: Result) => {
+    if (!onClickDatum) return;
+    result.view.addEventListener('click', (_event, item) => {
+      const datum = (item as { datum?: Record<string, unknown> } | null | undefined)?.datum;
+      if (datum) onClickDatum(datum);
+    });
+  };
+  return (
+    <VegaEmbed
+      role="img"
+      aria-label={label}
+      className="w-full"
+      spec={spec}
+      onEmbed={onEmbed}
+      options={{ actions: { export: true, source: false, compiled: false, editor: false }, renderer: 'svg', downloadFileName: label.replace(/[^\w-]+/g, '-').toLowerCase() }}
+    />
+  );
+}
