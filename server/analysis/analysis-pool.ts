@@ -41,17 +41,25 @@ export class AnalysisPoolBusyError extends HttpError {
 export class AnalysisPool {
   private readonly piscina: Piscina<AnalysisTask, AnalysisOutcome>;
   private readonly graceMs: number;
+  /** Runs accepted and not yet finished (running or waiting), and how many may be. */
+  private inFlight = 0;
+  private readonly capacity: number;
 
   constructor(options: AnalysisPoolOptions = {}) {
     const threads = options.maxThreads ?? Math.max(1, os.availableParallelism() - 1);
     this.graceMs = options.graceMs ?? 2000;
+    this.capacity = threads + (options.maxQueue ?? 16);
     this.piscina = new Piscina<AnalysisTask, AnalysisOutcome>({
       filename: new URL('./analysis.worker.ts', import.meta.url).href,
       execArgv: ['--import', 'tsx'],
       minThreads: 0,
       maxThreads: threads,
-      maxQueue: options.maxQueue ?? 16,
       idleTimeout: 60_000,
+    });
+    // A worker that fails outside a task (e.g. while starting) must not take the server down;
+    // piscina replaces it and the affected run reports the failure.
+    this.piscina.on('error', (error: unknown) => {
+      console.error('[analysis-pool] a worker failed:', error instanceof Error ? error.message : error);
     });
   }
 
@@ -60,12 +68,13 @@ export class AnalysisPool {
     const hardLimitMs = options.hardLimitMs ?? budgetMs + this.graceMs;
     const timeout = AbortSignal.timeout(hardLimitMs);
     const signal = options.signal ? AbortSignal.any([options.signal, timeout]) : timeout;
+    if (this.inFlight >= this.capacity) throw new AnalysisPoolBusyError();
+    this.inFlight += 1;
     const started = performance.now();
     try {
       return await this.piscina.run({ request, budgetMs }, { signal });
     } catch (error) {
       const elapsedMs = Math.round(performance.now() - started);
-      if (error instanceof Error && error.message === 'Task queue is at limit') throw new AnalysisPoolBusyError();
       if (options.signal?.aborted) {
         return { status: 'error', error: { code: RUN_ERROR_CODES.cancelled, message: 'The run was cancelled' }, elapsedMs };
       }
@@ -81,6 +90,8 @@ export class AnalysisPool {
       }
       const message = error instanceof Error ? error.message : String(error);
       return { status: 'error', error: { code: RUN_ERROR_CODES.crashed, message: `The analysis worker failed: ${message}` }, elapsedMs };
+    } finally {
+      this.inFlight -= 1;
     }
   }
 

@@ -1,5 +1,5 @@
 import { performance } from 'node:perf_hooks';
-import { analyze } from '../engine/index.ts';
+import { analyze } from '../engine/analyze.ts';
 import { EngineRequestError } from '../engine/errors.ts';
 import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisTask } from './analysis-task.ts';
 

@@ -82,10 +82,15 @@ describe('AnalysisPool', () => {
   it('refuses new runs with a clear error when the queue is full', async () => {
     const cancel = new AbortController();
     const busy = pool.run(runaway, { budgetMs: 60_000, signal: cancel.signal });
+    // Once the one worker is busy, one run may wait; the next is refused.
+    await new Promise((r) => setTimeout(r, 1000));
     const queued = pool.run(saddleNode);
-    await expect(pool.run(saddleNode)).rejects.toThrow(/busy/);
-    cancel.abort();
-    await busy;
+    try {
+      await expect(pool.run(saddleNode)).rejects.toThrow(/busy and the queue is full/);
+    } finally {
+      cancel.abort();
+    }
+    expect((await busy).status).toBe('error');
     expect((await queued).status).toBe('ok');
   });
 });
