@@ -1,4 +1,5 @@
 import os from 'node:os';
+import { MessageChannel } from 'node:worker_threads';
 import { performance } from 'node:perf_hooks';
 import { Piscina } from 'piscina';
 import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
@@ -21,6 +22,8 @@ export interface RunOptions {
   hardLimitMs?: number;
   /** Aborting it cancels the run (the worker is stopped and replaced). */
   signal?: AbortSignal;
+  /** Called when a worker picks the run up (before that it waits in the queue). */
+  onStart?: () => void;
 }
 
 /** 503: the pool has as many runs waiting as it accepts. */
@@ -71,8 +74,15 @@ export class AnalysisPool {
     if (this.inFlight >= this.capacity) throw new AnalysisPoolBusyError();
     this.inFlight += 1;
     const started = performance.now();
+    const channel = options.onStart ? new MessageChannel() : null;
+    if (channel && options.onStart) {
+      const onStart = options.onStart;
+      channel.port1.once('message', () => onStart());
+      channel.port1.unref();
+    }
     try {
-      return await this.piscina.run({ request, budgetMs }, { signal });
+      const task: AnalysisTask = channel ? { request, budgetMs, progress: channel.port2 } : { request, budgetMs };
+      return await this.piscina.run(task, { signal, ...(channel ? { transferList: [channel.port2] } : {}) });
     } catch (error) {
       const elapsedMs = Math.round(performance.now() - started);
       if (options.signal?.aborted) {
@@ -92,6 +102,7 @@ export class AnalysisPool {
       return { status: 'error', error: { code: RUN_ERROR_CODES.crashed, message: `The analysis worker failed: ${message}` }, elapsedMs };
     } finally {
       this.inFlight -= 1;
+      channel?.port1.close();
     }
   }
 

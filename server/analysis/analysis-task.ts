@@ -1,10 +1,19 @@
 import type { AnalyzeResult, EngineFieldError } from '@shared/engine/contract.ts';
 
-/** What the main thread sends a worker: the engine request as received, and its time budget. */
+import type { MessagePort } from 'node:worker_threads';
+
+/**
+ * What the main thread sends a worker: the engine request as received, its time budget, and a
+ * port on which the worker says when it starts (a run may first wait for a free worker).
+ */
 export interface AnalysisTask {
   request: unknown;
   budgetMs: number;
+  progress?: MessagePort;
 }
+
+/** Messages a worker posts on the task's progress port. */
+export type AnalysisProgress = { type: 'started' };
 
 /** What a worker answers. Request errors are values, never thrown across the thread boundary. */
 export type AnalysisOutcome =

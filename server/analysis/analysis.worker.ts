@@ -1,13 +1,15 @@
 import { performance } from 'node:perf_hooks';
 import { analyze } from '../engine/analyze.ts';
 import { EngineRequestError } from '../engine/errors.ts';
-import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisTask } from './analysis-task.ts';
+import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisProgress, type AnalysisTask } from './analysis-task.ts';
 
 /**
  * Runs one engine analysis in a worker thread. A bad request comes back as an error value with
  * the field path; any other failure as a "run_failed" value. Loaded by piscina (see analysis-pool.ts).
  */
 export default async function runAnalysis(task: AnalysisTask): Promise<AnalysisOutcome> {
+  task.progress?.postMessage({ type: 'started' } satisfies AnalysisProgress);
+  task.progress?.close();
   const started = performance.now();
   const elapsed = () => Math.round((performance.now() - started) * 1000) / 1000;
   try {

@@ -1,4 +1,5 @@
-import type { RunCellResponse } from '@shared/api/entries.ts';
+import type { RunCellResponse, RunProgress } from '@shared/api/entries.ts';
+import type { ActiveRun } from '@server/analysis/run-registry.ts';
 import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
 import type { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
 
@@ -27,5 +28,18 @@ export function presentStoredResult(row: AnalysisResultEntity): RunCellResponse 
     result: row.result,
     elapsedMs: row.elapsedMs,
     cached: true,
+  };
+}
+
+/** A cell's run in progress (or none). */
+export function presentRunProgress(run: ActiveRun | null, now = new Date()): RunProgress {
+  if (!run) return { state: 'idle' };
+  return {
+    state: run.startedAt ? 'running' : 'waiting',
+    startedBy: { id: run.startedBy.id, name: run.startedBy.name },
+    acceptedAt: run.acceptedAt.toISOString(),
+    startedAt: run.startedAt?.toISOString() ?? null,
+    elapsedMs: now.getTime() - run.acceptedAt.getTime(),
+    budgetMs: run.budgetMs,
   };
 }

@@ -8,9 +8,11 @@ import {
   saveDraftSchema,
 } from '@shared/api/entries.ts';
 import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { runRegistry } from '@server/analysis/run-registry.ts';
 import type { RouteDeps } from '@server/app-deps.ts';
-import { ValidationError } from '@server/errors/index.ts';
+import { NotFoundError, ValidationError } from '@server/errors/index.ts';
 import { currentUser, requireUser } from '@server/middlewares/authenticate.ts';
+import { presentRunProgress } from '@server/presenters/cell-output.presenter.ts';
 import { presentDraft, presentEntryDetail, presentEntrySummary } from '@server/presenters/entry.presenter.ts';
 import { presentRevision, presentRevisionSummary } from '@server/presenters/revision.presenter.ts';
 import { runCell } from '@server/services/analysis/run-cell.ts';
@@ -132,6 +134,17 @@ export function entriesRoutes(deps: RouteDeps): Router {
       { actor: ctx.actor, entry, cellId, request: body, signal: cancel.signal },
     );
     if (!cancel.signal.aborted) res.json(output);
+  });
+
+  router.get('/entries/:entryId/cells/:cellId/run', async (req, res) => {
+    const entry = await loadEntry(reading(req), { ...params(req), action: 'read' });
+    res.json(presentRunProgress(runRegistry.get(entry.id, params(req).cellId)));
+  });
+
+  router.delete('/entries/:entryId/cells/:cellId/run', async (req, res) => {
+    const entry = await loadEntry(reading(req), { ...params(req), action: 'run' });
+    if (!runRegistry.cancel(entry.id, params(req).cellId)) throw new NotFoundError('This cell has no run in progress');
+    res.status(204).end();
   });
 
   return router;

@@ -17,6 +17,8 @@ import { documentSchema } from '../editor/document.ts';
  * POST   /entries/:entryId/revisions/:revisionId/restore restoreRevision -> 201 revision | 409 conflictResponse
  * POST   /entries/:entryId/cells/:cellId/run          runCell           -> runCellResponse (a cell output; engine errors
  *                                                                          are an output with status "error", not an HTTP error)
+ * GET    /entries/:entryId/cells/:cellId/run                            -> runProgress (waiting / running / idle)
+ * DELETE /entries/:entryId/cells/:cellId/run                            -> 204 (cancels the run) | 404 (none in progress)
  * POST   /api/engine/validate-model                   validateModel     -> validateModelResponse
  *
  * Readers read; researchers and PIs write and run; a person who is not a member gets 404.
@@ -235,6 +237,25 @@ export type RunCellInput = z.input<typeof runCellSchema>;
 /** A run's answer: the cell output, and whether it came from the store of earlier runs. */
 export const runCellResponseSchema = z.intersection(cellOutputSchema, z.object({ cached: z.boolean() }));
 export type RunCellResponse = z.infer<typeof runCellResponseSchema>;
+
+/**
+ * GET …/cells/:cellId/run: whether the cell has a run in progress in the server. "waiting": the
+ * run waits for a free worker; "running": a worker is on it, for at most `budgetMs` (then it
+ * returns what it has). DELETE on the same path cancels it.
+ */
+export const runProgressSchema = z.discriminatedUnion('state', [
+  z.object({ state: z.literal('idle') }),
+  z.object({
+    state: z.enum(['waiting', 'running']),
+    startedBy: personRefSchema,
+    acceptedAt: z.string(),
+    startedAt: z.string().nullable(),
+    /** Time since the run was accepted. */
+    elapsedMs: z.number(),
+    budgetMs: z.number(),
+  }),
+]);
+export type RunProgress = z.infer<typeof runProgressSchema>;
 
 export const validateModelSchema = z.object({ model: z.unknown() });
 export type ValidateModelInput = z.input<typeof validateModelSchema>;

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AnalysisPool } from '@server/analysis/analysis-pool.ts';
 import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
 import type { ContinuationResult, SimulateResult } from '@shared/engine/contract.ts';
+import { RUNAWAY_REQUEST } from './entries-support.ts';
 
 /**
  * The worker pool runs real engine analyses in worker threads. Reference values:
@@ -14,14 +15,7 @@ const saddleNode = {
   task: { kind: 'continuation', parameter: 'mu', start: { x: 1 }, bounds: { min: -1, max: 2 } },
 };
 
-/**
- * A stiff decay over a very long span: an explicit integrator's stable step is about 3e-5 here
- * (common practice: the stability limit of explicit Runge-Kutta), so 1e9 time units need ~1e13 steps.
- */
-const runaway = {
-  model: { variables: [{ name: 'x', rhs: '-100000 * (x - 1)' }], parameters: [], definitions: [] },
-  task: { kind: 'simulate', initial: { x: 0 }, time: { start: 0, end: 1e9, samples: 1000 }, tolerance: { relative: 1e-12, absolute: 1e-14 } },
-};
+const runaway = RUNAWAY_REQUEST;
 
 describe('AnalysisPool', () => {
   let pool: AnalysisPool;

@@ -1,14 +1,15 @@
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi, type MockInstance } from 'vitest';
-import type { EntryDetail, Revision, RunCellResponse } from '@shared/api/entries.ts';
+import type { EntryDetail, Revision, RunCellResponse, RunProgress } from '@shared/api/entries.ts';
 import { inputHash } from '@shared/cells/hash.ts';
 import { resolveCellRequest } from '@shared/cells/resolve.ts';
 import type { ContinuationResult } from '@shared/engine/contract.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import {
+  RUNAWAY_REQUEST,
   SADDLE_BRANCH_CELL_ID,
   auditActionsFor,
   closeLogServer,
-  freshNotebook,
+  demoNotebookId,
   logServer,
   saddleBranchTask,
   saddleDoc,
@@ -34,7 +35,8 @@ describe('cell runs API', () => {
   beforeAll(async () => {
     await startLogServer();
     [kofi, jun, mira] = await Promise.all([signIn('researcher'), signIn('reader'), signIn('researcher2')]);
-    notebook = await freshNotebook([{ person: 'researcher', role: 'researcher' }, { person: 'reader', role: 'reader' }]);
+    // Kofi researches and Jun reads in the stirred-tank notebook; Mira is not a member of it.
+    notebook = await demoNotebookId('stirredTank');
     entry = (await kofi.post(`/api/notebooks/${notebook}/entries`, { title: 'Saddle-node check', entryDate: '2026-11-20' })).body as EntryDetail;
   });
   afterAll(closeLogServer);
@@ -115,12 +117,8 @@ describe('cell runs API', () => {
 
   it('cancels the run when the caller closes the request, freeing the worker', async () => {
     const cellId = crypto.randomUUID();
-    // Stiff decay over a huge span with a 60 s budget: it would hold the worker for a minute.
-    const runaway = {
-      model: { variables: [{ name: 'x', rhs: '-100000 * (x - 1)' }], parameters: [], definitions: [] },
-      task: { kind: 'simulate', initial: { x: 0 }, time: { start: 0, end: 1e9, samples: 100 } },
-      timeLimitMs: 60_000,
-    };
+    // With a 60 s budget it would hold the worker for a minute.
+    const runaway = { ...RUNAWAY_REQUEST, timeLimitMs: 60_000 };
     const pending = kofi.post(runUrl(cellId), runaway);
     const aborted = new Promise<void>((resolve) => {
       setTimeout(() => {
@@ -136,6 +134,27 @@ describe('cell runs API', () => {
     // A cancelled run records nothing.
     const rows = (await logServer().dataSource.query(`SELECT 1 FROM audit_event WHERE action = 'cell.run' AND entity_id = $1`, [cellId])) as unknown[];
     expect(rows).toHaveLength(0);
+  });
+
+  it('shows a long run in progress and cancels it on request', async () => {
+    const cellId = crypto.randomUUID();
+    const runaway = { ...RUNAWAY_REQUEST, timeLimitMs: 60_000 };
+    const pending = kofi.post(runUrl(cellId), runaway).then((r) => r);
+    let progress: RunProgress = { state: 'idle' };
+    for (let i = 0; i < 100 && progress.state !== 'running'; i += 1) {
+      await new Promise((r) => setTimeout(r, 50));
+      progress = (await jun.get(runUrl(cellId))).body as RunProgress;
+    }
+    expect(progress).toMatchObject({ state: 'running', startedBy: { name: 'Kofi Mensah' }, budgetMs: 60_000 });
+    if (progress.state === 'running') expect(progress.startedAt).not.toBeNull();
+
+    expect((await jun.delete(runUrl(cellId))).status).toBe(403);
+    expect((await kofi.delete(runUrl(cellId))).status).toBe(204);
+    const answer = (await pending).body as RunCellResponse;
+    expect(answer.status).toBe('error');
+    expect(answer.error?.code).toBe('run_cancelled');
+    expect(((await jun.get(runUrl(cellId))).body as RunProgress).state).toBe('idle');
+    expect((await kofi.delete(runUrl(cellId))).status).toBe(404);
   });
 
   it('validates a model for the form with paths and positions', async () => {

@@ -1,12 +1,12 @@
 import type { Response } from 'supertest';
 import type { DocumentJson } from '@shared/editor/document.ts';
-import type { NotebookRole } from '@shared/domain/roles.ts';
 import { closeAnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
-import { DEMO_PEOPLE, type DemoPersonKey } from '../../seeds/demo-people.ts';
-import { createTestApp, makeNotebook, signIn as signInAgent, type Agent, type TestApp } from '../support/test-app.ts';
+import { DEMO_NOTEBOOKS, DEMO_PEOPLE, type DemoNotebookKey, type DemoPersonKey } from '../../seeds/demo-people.ts';
+import { createTestApp, signIn as signInAgent, type Agent, type TestApp } from '../support/test-app.ts';
 
-/** Shared set-up of the research-log API tests: the real app, signed-in demo people, fresh notebooks. */
+/** Shared set-up of the research-log API tests: the real app, signed-in demo people, the demo notebooks. */
 let testApp: TestApp | null = null;
 
 export async function startLogServer(): Promise<TestApp> {
@@ -48,13 +48,10 @@ export async function signIn(key: DemoPersonKey): Promise<Client> {
   };
 }
 
-const demoUser = (key: DemoPersonKey) => logServer().dataSource.manager.findOneByOrFail(UserEntity, { email: DEMO_PEOPLE[key].email });
-
-/** A new notebook with the demo PI and the given demo members, so each test file starts from an empty log. */
-export async function freshNotebook(members: { person: DemoPersonKey; role: NotebookRole }[]): Promise<string> {
-  const pi = await demoUser('pi');
-  const others = await Promise.all(members.map(async (m) => ({ user: await demoUser(m.person), role: m.role })));
-  return (await makeNotebook(logServer().dataSource, pi, others)).id;
+/** The id of a demo notebook (seeded once for the run; see seeds/demo-people.ts for its members). */
+export async function demoNotebookId(key: DemoNotebookKey): Promise<string> {
+  const notebook = await logServer().dataSource.manager.findOneByOrFail(NotebookEntity, { title: DEMO_NOTEBOOKS[key].title });
+  return notebook.id;
 }
 
 /** Audit actions recorded about an entry (the entry itself, its revisions and its cells). */
@@ -86,3 +83,13 @@ export function saddleDoc(note = 'The saddle-node normal form.'): DocumentJson {
     ],
   };
 }
+
+/**
+ * A stiff decay over a very long span: an explicit integrator's stable step is about 3e-5 here
+ * (common practice: the stability limit of explicit Runge-Kutta methods), so 1e9 time units would
+ * need ~1e13 steps. It runs until its budget or the pool's hard limit stops it.
+ */
+export const RUNAWAY_REQUEST = {
+  model: { variables: [{ name: 'x', rhs: '-100000 * (x - 1)' }], parameters: [], definitions: [] },
+  task: { kind: 'simulate', initial: { x: 0 }, time: { start: 0, end: 1e9, samples: 100 }, tolerance: { relative: 1e-12, absolute: 1e-14 } },
+};

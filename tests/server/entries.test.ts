@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { EntryDetail, EntryList } from '@shared/api/entries.ts';
-import { auditActionsFor, closeLogServer, freshNotebook, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
+import { auditActionsFor, closeLogServer, demoNotebookId, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
 
 describe('entries API', () => {
   let kofi: Client;
@@ -13,9 +13,9 @@ describe('entries API', () => {
   beforeAll(async () => {
     await startLogServer();
     [kofi, mira, jun, ines] = await Promise.all([signIn('researcher'), signIn('researcher2'), signIn('reader'), signIn('pi')]);
-    // Like the demo notebooks: Kofi writes in the first, not in the second.
-    stirredTank = await freshNotebook([{ person: 'researcher', role: 'researcher' }, { person: 'reader', role: 'reader' }]);
-    shallowLake = await freshNotebook([{ person: 'researcher2', role: 'researcher' }, { person: 'reader', role: 'reader' }]);
+    // Kofi writes in the stirred-tank notebook, where Jun reads; he is not a member of the shallow-lake one.
+    stirredTank = await demoNotebookId('stirredTank');
+    shallowLake = await demoNotebookId('shallowLake');
   });
   afterAll(closeLogServer);
 

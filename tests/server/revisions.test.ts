@@ -2,23 +2,20 @@ import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ConflictResponse, EntryDetail, Revision, RevisionList } from '@shared/api/entries.ts';
 import { canonicalJson } from '@shared/cells/hash.ts';
-import { auditActionsFor, closeLogServer, freshNotebook, logServer, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
+import { auditActionsFor, closeLogServer, demoNotebookId, logServer, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
 
 describe('revisions API', () => {
   let kofi: Client;
   let mira: Client;
+  let ines: Client;
   let jun: Client;
   let notebook: string;
 
   beforeAll(async () => {
     await startLogServer();
-    [kofi, mira, jun] = await Promise.all([signIn('researcher'), signIn('researcher2'), signIn('reader')]);
-    // Like the two-gene switch notebook: two researchers who may both edit.
-    notebook = await freshNotebook([
-      { person: 'researcher', role: 'researcher' },
-      { person: 'researcher2', role: 'researcher' },
-      { person: 'reader', role: 'reader' },
-    ]);
+    [kofi, mira, ines, jun] = await Promise.all([signIn('researcher'), signIn('researcher2'), signIn('pi'), signIn('reader')]);
+    // The two-gene switch notebook: two researchers who may both edit.
+    notebook = await demoNotebookId('geneSwitch');
   });
   afterAll(closeLogServer);
 
@@ -46,7 +43,7 @@ describe('revisions API', () => {
       .digest('hex');
     expect(r2.contentHash).toBe(expected);
 
-    const detail = (await jun.get(`/api/notebooks/${notebook}/entries/${entry.id}`)).body as EntryDetail;
+    const detail = (await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}`)).body as EntryDetail;
     expect(detail.head.id).toBe(r2.id);
     expect(detail.entry.revisionCount).toBe(2);
     expect(await auditActionsFor(entry.id)).toEqual(['entry.created', 'revision.recorded', 'revision.recorded']);
@@ -87,7 +84,7 @@ describe('revisions API', () => {
     const { entry, head } = await newEntry('Race');
     const [a, b] = await Promise.all([save(kofi, entry.id, head.id, 'Kofi wins?'), save(mira, entry.id, head.id, 'Mira wins?')]);
     expect([a.status, b.status].sort()).toEqual([201, 409]);
-    const list = (await jun.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body as RevisionList;
+    const list = (await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body as RevisionList;
     expect(list.revisions.map((r) => r.number)).toEqual([2, 1]);
   });
 
@@ -96,11 +93,11 @@ describe('revisions API', () => {
     const r2 = (await save(kofi, entry.id, head.id, 'Version two')).body as Revision;
     const r3 = (await save(mira, entry.id, r2.id, 'Version three')).body as Revision;
 
-    const list = (await jun.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body as RevisionList;
+    const list = (await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body as RevisionList;
     expect(list.revisions.map((r) => [r.number, r.author.name])).toEqual([[3, 'Mira Castellanos'], [2, 'Kofi Mensah'], [1, 'Kofi Mensah']]);
     expect(list.revisions[0]).not.toHaveProperty('document');
 
-    const old = await jun.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}`);
+    const old = await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}`);
     expect(old.status).toBe(200);
     expect((old.body as Revision).document).toEqual(paragraphDoc('Version two'));
 
@@ -113,9 +110,9 @@ describe('revisions API', () => {
     expect((restored.body as Revision).contentHash).toBe(r2.contentHash);
     expect(await auditActionsFor(entry.id)).toContain('revision.restored');
 
-    // Readers may not restore; unknown revisions are 404.
-    expect((await jun.post(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}/restore`, { baseRevisionId: r3.id })).status).toBe(403);
-    expect((await jun.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${crypto.randomUUID()}`)).status).toBe(404);
+    // Jun is not a member of this notebook: 404; unknown revisions are 404 too.
+    expect((await jun.post(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}/restore`, { baseRevisionId: r3.id })).status).toBe(404);
+    expect((await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${crypto.randomUUID()}`)).status).toBe(404);
   });
 
   it('keeps revisions immutable in the database', async () => {

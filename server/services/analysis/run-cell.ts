@@ -1,8 +1,11 @@
 import type { DataSource } from 'typeorm';
 import type { RunCellInput, RunCellResponse } from '@shared/api/entries.ts';
 import type { AnalyzeResult } from '@shared/engine/contract.ts';
+import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
+import { runRegistry } from '@server/analysis/run-registry.ts';
 import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
 import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { presentRunOutcome, presentStoredResult } from '@server/presenters/cell-output.presenter.ts';
@@ -27,7 +30,7 @@ export interface RunCellProps {
   entry: EntryEntity;
   cellId: string;
   request: RunCellInput;
-  /** Aborted when the caller goes away: the run is cancelled. */
+  /** Aborted when the caller goes away: the run is cancelled (as is a run superseded or cancelled by DELETE). */
   signal?: AbortSignal;
 }
 
@@ -43,11 +46,19 @@ export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool
   const stored = await deps.dataSource.manager.findOne(AnalysisResultEntity, { where: { inputHash } });
   if (stored) return presentStoredResult(stored);
 
-  const budgetMs = typeof timeLimitMs === 'number' && Number.isInteger(timeLimitMs) && timeLimitMs > 0 ? timeLimitMs : undefined;
-  const outcome = await deps.pool.run({ model, task, ...(budgetMs ? { timeLimitMs: budgetMs } : {}) }, { budgetMs, signal: props.signal });
+  const asked = typeof timeLimitMs === 'number' && Number.isInteger(timeLimitMs) && timeLimitMs > 0 ? timeLimitMs : undefined;
+  const budgetMs = Math.min(asked ?? ENGINE_DEFAULTS.timeLimitMs, ENGINE_LIMITS.timeLimitMsMax);
+  const run = runRegistry.begin({ entryId: props.entry.id, cellId: props.cellId, startedBy: props.actor, budgetMs });
+  const signal = props.signal ? AbortSignal.any([props.signal, run.controller.signal]) : run.controller.signal;
+  let outcome: AnalysisOutcome;
+  try {
+    outcome = await deps.pool.run({ model, task, ...(asked ? { timeLimitMs: asked } : {}) }, { budgetMs, signal, onStart: () => runRegistry.markStarted(run) });
+  } finally {
+    runRegistry.finish(run);
+  }
   const computedAt = new Date();
   const output = presentRunOutcome(outcome, { inputHash, engineVersion: ENGINE_VERSION, computedAt });
-  if (props.signal?.aborted) return output;
+  if (signal.aborted) return output;
 
   await deps.dataSource.transaction(async (manager) => {
     if (outcome.status === 'ok' && !stoppedByTimeLimit(outcome.result)) {
