@@ -13,6 +13,8 @@ export interface AnalysisPoolOptions {
   maxQueue?: number;
   /** Time past the engine's own budget before a worker is stopped by force (default 2000 ms). */
   graceMs?: number;
+  /** Heap limit of each worker in MB (default 1024): a run that needs more fails alone. */
+  maxHeapMb?: number;
 }
 
 export interface RunOptions {
@@ -58,6 +60,7 @@ export class AnalysisPool {
       minThreads: 0,
       maxThreads: threads,
       idleTimeout: 60_000,
+      resourceLimits: { maxOldGenerationSizeMb: options.maxHeapMb ?? 1024 },
     });
     // A worker that fails outside a task (e.g. while starting) must not take the server down;
     // piscina replaces it and the affected run reports the failure.

@@ -46,7 +46,7 @@ export class EntryEntity extends BaseEntity {
   @Column({ type: 'integer', name: 'revision_count', default: 0 })
   revisionCount: number;
 
-  /** The head revision's document as plain text, for the search box. */
-  @Column({ type: 'text', name: 'search_text', default: '' })
+  /** The head revision's title, tags and document as plain text, for the search box (not loaded by default). */
+  @Column({ type: 'text', name: 'search_text', default: '', select: false })
   searchText: string;
 }

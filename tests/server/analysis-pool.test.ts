@@ -88,3 +88,22 @@ describe('AnalysisPool', () => {
     expect((await queued).status).toBe('ok');
   });
 });
+
+describe('AnalysisPool with a small heap', () => {
+  it('reports a worker that runs out of memory as a failed run, and keeps serving', async () => {
+    const pool = new AnalysisPool({ maxThreads: 1, maxHeapMb: 64 });
+    try {
+      // 100 variables sampled 100 000 times: the trajectory alone needs about 80 MB of numbers.
+      const variables = Array.from({ length: 100 }, (_, i) => ({ name: `x${i}`, rhs: `-x${i}` }));
+      const outcome = await pool.run({ model: { variables }, task: { kind: 'simulate', time: { end: 1, samples: 100_000 } } }, { budgetMs: 30_000 });
+      expect(outcome.status).toBe('error');
+      if (outcome.status === 'error') {
+        expect(outcome.error.code).toBe(RUN_ERROR_CODES.crashed);
+        expect(outcome.error.message).toMatch(/memory/i);
+      }
+      expect((await pool.run(saddleNode)).status).toBe('ok');
+    } finally {
+      await pool.close();
+    }
+  });
+});
