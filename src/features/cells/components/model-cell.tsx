@@ -99,18 +99,17 @@ function SectionHead({ title, onAdd, addLabel }: { title: string; onAdd?: () => 
 export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange: (next: Row) => void; readOnly: boolean }) {
   const { validateModel } = useCellsRuntime();
   const local = useMemo(() => checkCellInput('model', input), [input]);
-  const [engineProblems, setEngineProblems] = useState<FieldProblem[]>([]);
+  // The engine's answer, remembered with the model it was about (so a stale answer never shows).
+  const [engineCheck, setEngineCheck] = useState<{ model: string; problems: FieldProblem[] } | null>(null);
   const modelJson = local.ok ? JSON.stringify(toEngineModel(local.value)) : null;
+  const engineProblems = engineCheck && engineCheck.model === modelJson ? engineCheck.problems : [];
 
   useEffect(() => {
-    if (!modelJson || readOnly) {
-      setEngineProblems([]);
-      return;
-    }
+    if (!modelJson || readOnly) return;
     const controller = new AbortController();
     const timer = setTimeout(() => {
       validateModel(JSON.parse(modelJson), controller.signal)
-        .then((errs) => setEngineProblems(errs.map((e) => ({ ...e, path: e.path.replace(/^model\./, '') }))))
+        .then((errs) => setEngineCheck({ model: modelJson, problems: errs.map((e) => ({ ...e, path: e.path.replace(/^model\./, '') })) }))
         .catch(() => undefined);
     }, 450);
     return () => {

@@ -1,4 +1,4 @@
-import { useEffect, useState, type InputHTMLAttributes } from 'react';
+import { useState, type InputHTMLAttributes } from 'react';
 import { cn } from '@/components/ui/cn.ts';
 import { controlClass } from '@/components/ui/input.tsx';
 
@@ -26,9 +26,13 @@ type NumberInputProps = Omit<InputHTMLAttributes<HTMLInputElement>, 'value' | 'o
 export function NumberInput({ value, onValue, optional, className, ...rest }: NumberInputProps) {
   const shown = value === undefined || value === null ? '' : String(value);
   const [text, setText] = useState(shown);
-  useEffect(() => {
-    setText((t) => (readNumber(t) === value || (t === '' && value === undefined) ? t : shown));
-  }, [shown, value]);
+  const [lastShown, setLastShown] = useState(shown);
+  // A value changed from outside (undo, another field, a rebase) replaces the text, unless the
+  // text already reads as that value (then what the author typed, e.g. "1.50", stays).
+  if (shown !== lastShown) {
+    setLastShown(shown);
+    if (!(readNumber(text) === value || (text.trim() === '' && value === undefined))) setText(shown);
+  }
   return (
     <input
       inputMode="decimal"
