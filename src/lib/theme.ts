@@ -1,4 +1,4 @@
-import { useEffect, useSyncExternalStore } from 'react';
+import { useSyncExternalStore } from 'react';
 
 export const THEME_CHOICES = ['light', 'dark', 'system'] as const;
 export type ThemeChoice = (typeof THEME_CHOICES)[number];
@@ -37,9 +37,17 @@ export function setThemeChoice(choice: ThemeChoice): void {
   listeners.forEach((l) => l());
 }
 
-/** The stored choice, kept in step with the system setting while "system" is chosen. */
+/** Follows the system setting while "system" is chosen; call once at start. */
+export function watchSystemTheme(): () => void {
+  const mq = darkQuery();
+  const onChange = () => applyTheme();
+  mq.addEventListener('change', onChange);
+  return () => mq.removeEventListener('change', onChange);
+}
+
+/** The stored choice, for the theme controls. */
 export function useThemeChoice(): ThemeChoice {
-  const choice = useSyncExternalStore(
+  return useSyncExternalStore(
     (l) => {
       listeners.add(l);
       return () => listeners.delete(l);
@@ -47,11 +55,4 @@ export function useThemeChoice(): ThemeChoice {
     readThemeChoice,
     () => 'system' as const,
   );
-  useEffect(() => {
-    const mq = darkQuery();
-    const onChange = () => applyTheme();
-    mq.addEventListener('change', onChange);
-    return () => mq.removeEventListener('change', onChange);
-  }, []);
-  return choice;
 }

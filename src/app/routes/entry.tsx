@@ -15,7 +15,8 @@ export default function EntryRoute() {
   useDocumentTitle(notebook.data ? `Entry · ${notebook.data.title}` : 'Entry');
   if (notebook.isPending) return <SkeletonBlock lines={8} label="Loading the entry" />;
   if (notebook.isError) {
-    if (isApiError(notebook.error) && (notebook.error.status === 404 || notebook.error.status === 400)) return <NotFound />;
+    if (isApiError(notebook.error) && (notebook.error.status === 404 || notebook.error.status === 400))
+      return <NotFound />;
     return <QueryError error={notebook.error} what="the notebook" onRetry={() => void notebook.refetch()} />;
   }
   return (

@@ -11,7 +11,7 @@ export default function AdminInvitesRoute() {
       <PageHeader eyebrow="Administration" title="Invites">
         Invites sent by e-mail, and whether they were accepted.
       </PageHeader>
-      <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      <div className="grid items-start gap-8 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <InvitesTable />
         <section aria-labelledby="invite-heading" className="rounded-lg border border-rule bg-surface p-6">
           <h2 id="invite-heading" className="mb-4 text-base font-semibold">

@@ -76,8 +76,8 @@ function MemberRow({
   const remove = useRemoveMember(notebookId);
   const fail = (e: unknown) => toast.error('Not changed', e instanceof ApiError ? e.message : undefined);
   return (
-    <li className="flex flex-wrap items-center gap-3 py-3">
-      <div className="min-w-0 flex-1">
+    <li className="flex flex-wrap items-center gap-x-3 gap-y-2 py-3">
+      <div className="min-w-0 flex-1 basis-40">
         <p className="truncate text-sm font-medium text-ink">
           {member.name}
           {isSelf && <span className="text-ink-muted"> (you)</span>}
@@ -85,13 +85,14 @@ function MemberRow({
         <p className="truncate text-xs text-ink-muted">{member.email}</p>
       </div>
       {canManage ? (
-        <>
+        <div className="flex w-full items-center gap-2">
           <label className="sr-only" htmlFor={`role-${member.userId}`}>
             Role of {member.name}
           </label>
           <Select
             id={`role-${member.userId}`}
-            className="h-8 w-auto text-sm"
+            compact
+            className="flex-1"
             value={member.role}
             disabled={change.isPending}
             options={roleOptions}
@@ -113,7 +114,7 @@ function MemberRow({
             busy={remove.isPending}
             onConfirm={(close) => remove.mutate(member.userId, { onSettled: close, onError: fail })}
           />
-        </>
+        </div>
       ) : (
         <NotebookRoleBadge role={member.role} />
       )}

@@ -22,7 +22,7 @@ function SiteRoleSelect({ user, disabled }: { user: User; disabled: boolean }) {
   return (
     <Select
       aria-label={`Site role of ${user.name}`}
-      className="h-8 w-auto text-sm"
+      compact
       value={user.siteRole}
       disabled={disabled || update.isPending}
       onChange={(e) =>
