@@ -45,6 +45,7 @@ export function createAppRouter() {
           children: [
             { path: paths.notebooks.path, lazy: lazy(() => import('./routes/notebooks.tsx')) },
             { path: paths.notebook.path, lazy: lazy(() => import('./routes/notebook.tsx')) },
+            { path: paths.entry.path, lazy: lazy(() => import('./routes/entry.tsx')) },
             { path: paths.account.path, lazy: lazy(() => import('./routes/account.tsx')) },
             { path: paths.adminUsers.path, lazy: lazy(() => import('./routes/admin/users.tsx')) },
             { path: paths.adminInvites.path, lazy: lazy(() => import('./routes/admin/invites.tsx')) },
