@@ -2,7 +2,7 @@ import 'reflect-metadata';
 import path from 'node:path';
 import type { DataSource, EntityManager } from 'typeorm';
 import { createDataSource } from '@server/data-source.ts';
-import { NotebookEntity } from '@server/entities/notebook.entity.ts';
+import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
 import { loadEnvOrExit } from '@server/env.ts';
 import { addMember } from '@server/services/members/add-member.ts';

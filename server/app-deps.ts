@@ -1,3 +1,4 @@
+import type { Request } from 'express';
 import type passport from 'passport';
 import type { DataSource } from 'typeorm';
 import type { Env } from './env.ts';
@@ -17,5 +18,5 @@ export interface AppDeps {
 export interface RouteDeps extends AppDeps {
   passport: passport.PassportStatic;
   rateLimits: RateLimits;
-  generateCsrfToken: (req: import('express').Request, overwrite?: boolean) => string;
+  generateCsrfToken: (req: Request, overwrite?: boolean) => string;
 }

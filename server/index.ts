@@ -45,7 +45,7 @@ if (isEntryPoint) {
   const env = loadEnvOrExit();
   const clientDir = path.resolve('dist/client');
   const running = await startServer(env, { clientDir: existsSync(clientDir) ? clientDir : null, host: process.env.HOST });
-  console.log(`Bifolio API listening on 127.0.0.1:${running.port} (${env.PUBLIC_URL})`);
+  process.stdout.write(`Bifolio API listening on 127.0.0.1:${running.port} (${env.PUBLIC_URL})\n`);
   for (const signal of ['SIGINT', 'SIGTERM'] as const) {
     process.once(signal, () => void running.stop().then(() => process.exit(0)));
   }
