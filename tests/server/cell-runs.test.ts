@@ -1,5 +1,5 @@
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it, vi, type MockInstance } from 'vitest';
-import type { EntryDetail, Revision, RunCellResponse, RunProgress } from '@shared/api/entries.ts';
+import { runCellResponseSchema, runProgressSchema, type EntryDetail, type Revision, type RunCellResponse, type RunProgress } from '@shared/api/entries.ts';
 import { inputHash } from '@shared/cells/hash.ts';
 import { resolveCellRequest } from '@shared/cells/resolve.ts';
 import type { ContinuationResult } from '@shared/engine/contract.ts';
@@ -55,7 +55,7 @@ describe('cell runs API', () => {
     if (!resolution.ok) return;
     const res = await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), resolution.request);
     expect(res.status).toBe(200);
-    const output = res.body as RunCellResponse;
+    const output = runCellResponseSchema.parse(res.body);
     expect(output).toMatchObject({ status: 'ok', engineVersion: ENGINE_VERSION, cached: false });
     // The same hash the client computes from the resolved request (Web Crypto).
     expect(output.inputHash).toBe(await inputHash(ENGINE_VERSION, resolution.request));
@@ -85,7 +85,7 @@ describe('cell runs API', () => {
     const badModel = { ...saddleModel, variables: [{ name: 'x', rhs: 'mu - * x' }] };
     const res = await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), { model: badModel, task: saddleBranchTask });
     expect(res.status).toBe(200);
-    const output = res.body as RunCellResponse;
+    const output = runCellResponseSchema.parse(res.body);
     expect(output.status).toBe('error');
     expect(output.error).toMatchObject({ path: 'model.variables[0].rhs' });
     expect(output.error?.message.length).toBeGreaterThan(5);
@@ -143,7 +143,7 @@ describe('cell runs API', () => {
     let progress: RunProgress = { state: 'idle' };
     for (let i = 0; i < 100 && progress.state !== 'running'; i += 1) {
       await new Promise((r) => setTimeout(r, 50));
-      progress = (await jun.get(runUrl(cellId))).body as RunProgress;
+      progress = runProgressSchema.parse((await jun.get(runUrl(cellId))).body);
     }
     expect(progress).toMatchObject({ state: 'running', startedBy: { name: 'Kofi Mensah' }, budgetMs: 60_000 });
     if (progress.state === 'running') expect(progress.startedAt).not.toBeNull();

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { EntryDetail, EntryList } from '@shared/api/entries.ts';
+import { draftSchema, entryDetailSchema, entryListSchema, type EntryDetail, type EntryList } from '@shared/api/entries.ts';
 import { auditActionsFor, closeLogServer, demoNotebookId, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
 
 describe('entries API', () => {
@@ -22,7 +22,7 @@ describe('entries API', () => {
   it('creates an entry with an empty revision #1 and records the audit event', async () => {
     const res = await kofi.post(`/api/notebooks/${stirredTank}/entries`, { title: 'Ignition branch, first look', entryDate: '2026-11-02', tags: ['cstr', 'ignition', 'CSTR'] });
     expect(res.status).toBe(201);
-    const detail = res.body as EntryDetail;
+    const detail = entryDetailSchema.parse(res.body);
     expect(detail.entry).toMatchObject({ title: 'Ignition branch, first look', entryDate: '2026-11-02', tags: ['cstr', 'ignition'], status: 'draft', revisionCount: 1, author: { name: 'Kofi Mensah' } });
     expect(detail.head).toMatchObject({ number: 1, parentId: null, document: { type: 'doc' }, outputs: {} });
     expect(detail.head.contentHash).toMatch(/^[0-9a-f]{64}$/);
@@ -43,7 +43,7 @@ describe('entries API', () => {
       baseRevisionId: detail.head.id, title: detail.head.title, entryDate: detail.head.entryDate, tags: detail.head.tags, document: paragraphDoc('Jacket coolant at 301.5 K'),
     });
 
-    const all = (await jun.get(`/api/notebooks/${stirredTank}/entries`)).body as EntryList;
+    const all: EntryList = entryListSchema.parse((await jun.get(`/api/notebooks/${stirredTank}/entries`)).body);
     const dates = all.entries.map((e) => e.entryDate);
     expect(dates).toEqual([...dates].sort().reverse());
     expect(all.entries.length).toBeGreaterThanOrEqual(3);
@@ -94,6 +94,7 @@ describe('entries API', () => {
     const body = { baseRevisionId: created.head.id, title: 'Draft check (editing)', entryDate: '2026-11-08', tags: ['wip'], document: paragraphDoc('half a thought'), outputs: {} };
     const saved = await kofi.put(`${url}/draft`, body);
     expect(saved.status).toBe(200);
+    draftSchema.parse(saved.body);
     expect(saved.body).toMatchObject({ baseRevisionId: created.head.id, title: 'Draft check (editing)', tags: ['wip'] });
     const again = await kofi.put(`${url}/draft`, { ...body, document: paragraphDoc('a whole thought') });
     expect(again.status).toBe(200);

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ConflictResponse, EntryDetail, Revision, RevisionList } from '@shared/api/entries.ts';
+import { conflictResponseSchema, revisionListSchema, revisionSchema, type EntryDetail, type Revision, type RevisionList } from '@shared/api/entries.ts';
 import { canonicalJson } from '@shared/cells/hash.ts';
 import { auditActionsFor, closeLogServer, demoNotebookId, logServer, paragraphDoc, signIn, startLogServer, type Client } from './entries-support.ts';
 
@@ -36,7 +36,7 @@ describe('revisions API', () => {
     const { entry, head } = await newEntry('Repressor switch');
     const res = await save(kofi, entry.id, head.id, 'Nullclines cross three times.', { message: 'First notes' });
     expect(res.status).toBe(201);
-    const r2 = res.body as Revision;
+    const r2 = revisionSchema.parse(res.body);
     expect(r2).toMatchObject({ number: 2, parentId: head.id, message: 'First notes', author: { name: 'Kofi Mensah' }, entryId: entry.id });
     const expected = createHash('sha256')
       .update(canonicalJson({ title: r2.title, entryDate: r2.entryDate, tags: r2.tags, document: r2.document, outputs: r2.outputs }))
@@ -63,7 +63,7 @@ describe('revisions API', () => {
 
     const stale = await save(kofi, entry.id, head.id, 'Kofi: hysteresis loop measured.');
     expect(stale.status).toBe(409);
-    const conflict = stale.body as ConflictResponse;
+    const conflict = conflictResponseSchema.parse(stale.body);
     expect(conflict.error.code).toBe('conflict');
     expect(conflict.error.message).toContain('Mira Castellanos');
     expect(conflict.error.current.id).toBe((first.body as Revision).id);
@@ -93,7 +93,7 @@ describe('revisions API', () => {
     const r2 = (await save(kofi, entry.id, head.id, 'Version two')).body as Revision;
     const r3 = (await save(mira, entry.id, r2.id, 'Version three')).body as Revision;
 
-    const list = (await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body as RevisionList;
+    const list: RevisionList = revisionListSchema.parse((await ines.get(`/api/notebooks/${notebook}/entries/${entry.id}/revisions`)).body);
     expect(list.revisions.map((r) => [r.number, r.author.name])).toEqual([[3, 'Mira Castellanos'], [2, 'Kofi Mensah'], [1, 'Kofi Mensah']]);
     expect(list.revisions[0]).not.toHaveProperty('document');
 
