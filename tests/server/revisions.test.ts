@@ -104,11 +104,18 @@ describe('revisions API', () => {
     // Restoring from a stale base is a conflict too.
     const staleRestore = await kofi.post(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}/restore`, { baseRevisionId: r2.id });
     expect(staleRestore.status).toBe(409);
+    // Kofi has unsaved work; restoring keeps it (its base goes stale, so saving it will ask to rebase).
+    await kofi.put(`/api/notebooks/${notebook}/entries/${entry.id}/draft`, {
+      baseRevisionId: r3.id, title: 'History', entryDate: '2026-11-12', tags: [], document: paragraphDoc('unsaved work'), outputs: {},
+    });
     const restored = await kofi.post(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}/restore`, { baseRevisionId: r3.id });
     expect(restored.status).toBe(201);
     expect(restored.body as Revision).toMatchObject({ number: 4, parentId: r3.id, restoredFromId: r2.id, message: 'Restored revision 2', document: paragraphDoc('Version two') });
     expect((restored.body as Revision).contentHash).toBe(r2.contentHash);
     expect(await auditActionsFor(entry.id)).toContain('revision.restored');
+    const afterRestore = (await kofi.get(`/api/notebooks/${notebook}/entries/${entry.id}`)).body as EntryDetail;
+    expect(afterRestore.draft).toMatchObject({ baseRevisionId: r3.id, document: paragraphDoc('unsaved work') });
+    expect(afterRestore.head.id).toBe((restored.body as Revision).id);
 
     // Jun is not a member of this notebook: 404; unknown revisions are 404 too.
     expect((await jun.post(`/api/notebooks/${notebook}/entries/${entry.id}/revisions/${r2.id}/restore`, { baseRevisionId: r3.id })).status).toBe(404);

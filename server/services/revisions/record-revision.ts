@@ -23,6 +23,8 @@ export interface RecordRevisionProps {
   message?: string | null;
   /** When this revision restores an older one. */
   restoredFromId?: string | null;
+  /** Delete the actor's working draft (default true: the draft is what was just recorded). */
+  consumeDraft?: boolean;
 }
 
 /** The text the search box looks in: title, tags and the document as plain text. */
@@ -41,7 +43,8 @@ export async function findRevisionWithAuthor(ctx: ActingContext, id: string): Pr
  * The caller holds the entry row lock, so two saves on the same base cannot both win: the second
  * sees a different head and gets a RevisionConflictError carrying the current head. Outputs of
  * cells no longer in the document are dropped. The entry's list columns follow the new head; the
- * actor's working draft is consumed; an audit event is written in the same transaction.
+ * actor's working draft is consumed (unless told otherwise); an audit event is written in the
+ * same transaction.
  */
 export async function recordRevision(ctx: ActingContext, props: RecordRevisionProps): Promise<RevisionWithAuthor> {
   const { entry } = props;
@@ -73,7 +76,7 @@ export async function recordRevision(ctx: ActingContext, props: RecordRevisionPr
     revisionCount: number,
     searchText: searchTextOf(content),
   });
-  await ctx.manager.delete(EntryDraftEntity, { entryId: entry.id, userId: ctx.actor.id });
+  if (props.consumeDraft ?? true) await ctx.manager.delete(EntryDraftEntity, { entryId: entry.id, userId: ctx.actor.id });
 
   await recordEvent(ctx.manager, {
     actorId: ctx.actor.id,

@@ -7,7 +7,8 @@ import { recordRevision } from './record-revision.ts';
 
 /**
  * Restores an old revision as a new head revision (history is never rewritten): its content is
- * copied into revision n+1, which remembers where it came from. Same base check as any save.
+ * copied into revision n+1, which remembers where it came from. Same base check as any save;
+ * the actor's working draft, if any, is kept.
  */
 export async function restoreRevision(
   ctx: ActingContext,
@@ -25,5 +26,7 @@ export async function restoreRevision(
     outputs: old.outputs,
     message: `Restored revision ${old.number}`,
     restoredFromId: old.id,
+    // A working draft is kept: its base is now stale, so saving it later asks to rebase.
+    consumeDraft: false,
   });
 }
