@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { existsSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
+import { closeAnalysisPool } from './analysis/analysis-pool.ts';
 import { createApp, type AppOptions } from './app.ts';
 import { createDataSource } from './data-source.ts';
 import { loadEnvOrExit, type Env } from './env.ts';
@@ -33,6 +34,7 @@ export async function startServer(env: Env, options: AppOptions & { host?: strin
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await bifolio.close();
+      await closeAnalysisPool();
       mailer.close();
       storage.client.destroy();
       await dataSource.destroy();
