@@ -6,6 +6,8 @@ import type { CoordinateBound, CurveSystem } from './curve-system.ts';
 
 export interface CurvePoint {
   y: Float64Array;
+  /** What `FollowOptions.describe` returned for this point (e.g. its stability). */
+  data?: unknown;
   /** Unit tangent, oriented along the direction of travel. */
   tangent: Float64Array;
   /** ‖G(y)‖₂. */
@@ -20,6 +22,8 @@ export interface FollowOptions {
   /** Date.now() value after which the curve stops with "time-limit". */
   deadline: number;
   tolerances: Tolerances;
+  /** Called once per accepted point, inside the time budget; the value is kept as `data`. */
+  describe?: (point: CurvePoint) => unknown;
 }
 
 export interface FollowResult {
@@ -114,7 +118,12 @@ export function followCurve(system: CurveSystem, start: Float64Array, direction:
   const t0 = curveTangent(system, start, direction, ws);
   if (!t0) return { points: [], stopReason: 'step-too-small' };
   system.evaluate(start, ws.g);
-  const points: CurvePoint[] = [{ y: start.slice(), tangent: t0, residual: norm2(ws.g) }];
+  const points: CurvePoint[] = [];
+  const push = (pt: CurvePoint) => {
+    if (options.describe) pt.data = options.describe(pt);
+    points.push(pt);
+  };
+  push({ y: start.slice(), tangent: t0, residual: norm2(ws.g) });
   let y = points[0].y;
   let t = t0;
   let h = step.initial;
@@ -144,11 +153,11 @@ export function followCurve(system: CurveSystem, start: Float64Array, direction:
     const outside = options.bounds.find((b) => next[b.index] < b.min || next[b.index] > b.max);
     if (outside) {
       const edge = landOnBound(system, y, next, outside, tol, ws);
-      if (edge) points.push(edge);
+      if (edge) push(edge);
       return { points, stopReason: 'bounds' };
     }
     system.evaluate(next, ws.g);
-    points.push({ y: next, tangent: tn!, residual: norm2(ws.g) });
+    push({ y: next, tangent: tn!, residual: norm2(ws.g) });
     travelled += segment;
     if (points.length > 3 && travelled > 3 * segment && dot(tn!, points[0].tangent) > 0 && distanceToSegment(points[0].y, y, next) <= 0.05 * segment + 1e-9 * (1 + normInf(next)))
       return { points, stopReason: 'closed' };

@@ -63,7 +63,12 @@ export function runContinuation(model: CompiledModel, task: ContinuationTask, ct
   const y0 = new Float64Array(n + 1);
   y0.set(start.y);
   y0[n] = mu0;
-  const options = { step: task.step, bounds: [{ index: n, min: task.bounds.min, max: task.bounds.max }], deadline: ctx.deadline, tolerances: ctx.tolerances };
+  const jac = new Float64Array(n * n);
+  const describe = (pt: CurvePoint): BranchPoint => {
+    model.jacobian(pt.y, system.parametersAt(pt.y), jac);
+    return { state: named(model.variables, pt.y), parameter: pt.y[n], ...stabilityOf(jac, n, ctx.tolerances), residual: pt.residual };
+  };
+  const options = { step: task.step, bounds: [{ index: n, min: task.bounds.min, max: task.bounds.max }], deadline: ctx.deadline, tolerances: ctx.tolerances, describe };
   const follow = (sign: number, maxPoints: number): FollowResult => {
     const e = new Float64Array(n + 1);
     e[n] = sign;
@@ -75,19 +80,7 @@ export function runContinuation(model: CompiledModel, task: ContinuationTask, ct
     return followCurve(system, y0, e, { ...options, maxPoints });
   };
   const traced = followBothWays(follow, task.direction, task.maxPoints);
-  let stopReason = traced.stopReason;
-
-  const points: BranchPoint[] = [];
-  const jac = new Float64Array(n * n);
-  for (const pt of traced.points) {
-    if (pastDeadline(ctx)) {
-      stopReason = 'time-limit';
-      break;
-    }
-    const pp = system.parametersAt(pt.y);
-    model.jacobian(pt.y, pp, jac);
-    points.push({ state: named(model.variables, pt.y), parameter: pt.y[n], ...stabilityOf(jac, n, ctx.tolerances), residual: pt.residual });
-  }
+  const points = traced.points.map((pt) => pt.data as BranchPoint);
   const events: FoldEvent[] = [];
   for (let i = 0; i + 1 < points.length; i++) {
     const ta = traced.points[i].tangent[n];
@@ -96,7 +89,7 @@ export function runContinuation(model: CompiledModel, task: ContinuationTask, ct
     const fold = foldEvent(model, k, p, traced.points[i], traced.points[i + 1], i, ctx);
     if (fold) events.push(fold);
   }
-  const branch: Branch = { points, events, stopReason };
+  const branch: Branch = { points, events, stopReason: traced.stopReason };
   if (traced.stopReasonAtStart) branch.stopReasonAtStart = traced.stopReasonAtStart;
   return branch;
 }

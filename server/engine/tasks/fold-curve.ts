@@ -4,7 +4,7 @@ import { locateAlongCurve } from '../bifurcation/cusp.ts';
 import { locateFold } from '../bifurcation/fold.ts';
 import { FoldSystem } from '../bifurcation/fold-system.ts';
 import { foldCoefficients, foldNormalForm } from '../bifurcation/normal-form.ts';
-import { followCurve, type FollowResult } from '../continuation/pseudo-arclength.ts';
+import { followCurve, type CurvePoint, type FollowResult } from '../continuation/pseudo-arclength.ts';
 import { luFactor, luSolve } from '../linalg/lu.ts';
 import { norm2, normInf } from '../linalg/vector.ts';
 import type { CompiledModel } from '../model/compile.ts';
@@ -71,35 +71,29 @@ export function runFoldCurve(model: CompiledModel, task: FoldCurveTask, ctx: Tas
     { index: 2 * n, min: task.bounds[name1][0], max: task.bounds[name1][1] },
     { index: 2 * n + 1, min: task.bounds[name2][0], max: task.bounds[name2][1] },
   ];
-  const follow = (sign: number, maxPoints: number): FollowResult => {
-    const e = new Float64Array(2 * n + 2);
-    e[2 * n + 1] = sign;
-    const r = followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances });
-    if (r.points.length > 0) return r;
-    e[2 * n + 1] = 0;
-    e[2 * n] = sign;
-    return followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances });
-  };
-  const traced = followBothWays(follow, task.direction, task.maxPoints);
-  let stopReason = traced.stopReason;
-
-  const points: FoldCurvePoint[] = [];
-  const continuousB: number[] = [];
-  let bScale = 0;
-  for (const pt of traced.points) {
-    if (pastDeadline(ctx)) {
-      stopReason = 'time-limit';
-      break;
-    }
+  const describe = (pt: CurvePoint) => {
     const pp = system.parametersAt(pt.y).slice();
     const x = pt.y.slice(0, n);
     const v = pt.y.slice(n, 2 * n);
     const nf = foldNormalForm(model, x, pp, k1, v, ctx.tolerances);
     const raw = foldCoefficients(model, x, pp, k1, v, ctx.tolerances);
-    continuousB.push(raw.b);
-    bScale = Math.max(bScale, Math.abs(raw.b));
-    points.push({ parameters: { [name1]: pt.y[2 * n], [name2]: pt.y[2 * n + 1] }, state: named(model.variables, x), normalForm: { a: nf.a, b: nf.b }, residual: pt.residual });
-  }
+    const point: FoldCurvePoint = { parameters: { [name1]: pt.y[2 * n], [name2]: pt.y[2 * n + 1] }, state: named(model.variables, x), normalForm: { a: nf.a, b: nf.b }, residual: pt.residual };
+    return { point, continuousB: raw.b };
+  };
+  const follow = (sign: number, maxPoints: number): FollowResult => {
+    const e = new Float64Array(2 * n + 2);
+    e[2 * n + 1] = sign;
+    const r = followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances, describe });
+    if (r.points.length > 0) return r;
+    e[2 * n + 1] = 0;
+    e[2 * n] = sign;
+    return followCurve(system, y0, e, { step: task.step, maxPoints, bounds, deadline: ctx.deadline, tolerances: ctx.tolerances, describe });
+  };
+  const traced = followBothWays(follow, task.direction, task.maxPoints);
+  const described = traced.points.map((pt) => pt.data as ReturnType<typeof describe>);
+  const points = described.map((d) => d.point);
+  const continuousB = described.map((d) => d.continuousB);
+  const bScale = Math.max(...continuousB.map(Math.abs), 1e-300);
   const events: CuspEvent[] = [];
   for (let i = 0; i + 1 < points.length; i++) {
     if (!(continuousB[i] * continuousB[i + 1] < 0) || pastDeadline(ctx)) continue;
@@ -108,11 +102,11 @@ export function runFoldCurve(model: CompiledModel, task: FoldCurveTask, ctx: Tas
       const pp = system.parametersAt(y).slice();
       return foldCoefficients(model, y.slice(0, n), pp, k1, y.slice(n, 2 * n), ctx.tolerances).b;
     };
-    const z = locateAlongCurve(system, a.y, a.tangent, traced.points[i + 1].y, testB, Math.max(bScale, 1e-300), ctx.tolerances);
+    const z = locateAlongCurve(system, a.y, a.tangent, traced.points[i + 1].y, testB, bScale, ctx.tolerances);
     if (!z) continue;
     events.push({ kind: 'cusp', parameters: { [name1]: z[2 * n], [name2]: z[2 * n + 1] }, state: named(model.variables, z), after: i });
   }
-  const curve: FoldCurve = { points, events, stopReason };
+  const curve: FoldCurve = { points, events, stopReason: traced.stopReason };
   if (traced.stopReasonAtStart) curve.stopReasonAtStart = traced.stopReasonAtStart;
   return curve;
 }
