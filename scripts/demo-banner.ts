@@ -17,7 +17,7 @@ export function demoBanner(url: string, extra: string[] = []): string {
     'Demo sign-ins:',
     ...rows.map(([role, p]) => `  ${role.padEnd(19)} ${p.email.padEnd(width)}  ${p.password.padEnd(26)} (${p.name})`),
     '',
-    `Local outbox (invite and reset mails): ${url}/outbox`,
+    `Local outbox (invite and reset mails): ${url}/dev/outbox`,
     ...extra,
     'Press Ctrl-C to stop everything.',
     '',
