@@ -104,6 +104,11 @@ describe('entries API', () => {
     // The draft is Kofi's own: the PI sees the head only.
     expect(((await ines.get(url)).body as EntryDetail).draft).toBeNull();
 
+    // A draft must start from a revision of this very entry.
+    const foreign = await kofi.put(`${url}/draft`, { ...body, baseRevisionId: crypto.randomUUID() });
+    expect(foreign.status).toBe(400);
+    expect(foreign.body.error.fields).toEqual([{ path: 'baseRevisionId', message: 'Not a revision of this entry' }]);
+
     expect((await kofi.delete(`${url}/draft`)).status).toBe(204);
     expect(((await kofi.get(url)).body as EntryDetail).draft).toBeNull();
   });
