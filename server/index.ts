@@ -2,7 +2,7 @@ import 'reflect-metadata';
 import { existsSync } from 'node:fs';
 import type { Server } from 'node:http';
 import path from 'node:path';
-import { closeAnalysisPool } from './analysis/analysis-pool.ts';
+import { closeAnalysisPool, getAnalysisPool } from './analysis/analysis-pool.ts';
 import { createApp, type AppOptions } from './app.ts';
 import { createDataSource } from './data-source.ts';
 import { loadEnvOrExit, type Env } from './env.ts';
@@ -22,6 +22,7 @@ export async function startServer(env: Env, options: AppOptions & { host?: strin
   const mailer = createSmtpMailer(env);
   const storage = createS3Storage(env);
   const bifolio = createApp({ env, dataSource, mailer, storage }, options);
+  getAnalysisPool(); // starts a worker now, so the first cell run does not wait for the engine to load
   const server: Server = await new Promise((resolve, reject) => {
     const s = bifolio.app.listen(env.PORT, options.host ?? '127.0.0.1', (error?: Error) => (error ? reject(error) : resolve(s)));
   });

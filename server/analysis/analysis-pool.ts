@@ -15,6 +15,8 @@ export interface AnalysisPoolOptions {
   graceMs?: number;
   /** Heap limit of each worker in MB (default 1024): a run that needs more fails alone. */
   maxHeapMb?: number;
+  /** Workers kept warm once started (default 1): loading the engine in a fresh worker takes a second or more. */
+  minThreads?: number;
 }
 
 export interface RunOptions {
@@ -57,7 +59,7 @@ export class AnalysisPool {
     this.piscina = new Piscina<AnalysisTask, AnalysisOutcome>({
       filename: new URL('./analysis.worker.ts', import.meta.url).href,
       execArgv: ['--import', 'tsx'],
-      minThreads: 0,
+      minThreads: Math.min(options.minThreads ?? 1, threads),
       maxThreads: threads,
       idleTimeout: 60_000,
       resourceLimits: { maxOldGenerationSizeMb: options.maxHeapMb ?? 1024 },
