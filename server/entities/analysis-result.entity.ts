@@ -2,9 +2,11 @@ import { Column, CreateDateColumn, Entity, PrimaryColumn } from 'typeorm';
 import type { AnalyzeResult } from '@shared/engine/contract.ts';
 
 /**
- * A finished engine run, kept so the same request is not computed twice. Keyed by the input
- * hash: sha256 hex of canonicalJson({ engineVersion, model, task }). Only successful runs are
- * stored (a bad request is answered again, quickly, by the engine's checks).
+ * A finished engine run, kept so the same request is not computed twice and so a recorded output
+ * can be checked against what the server computed. Keyed by the input hash: sha256 hex of
+ * canonicalJson({ engineVersion, model, task }). Only successful runs are stored (a bad request is
+ * answered again, quickly, by the engine's checks); a run cut short by its time budget is stored
+ * but not reused.
  */
 @Entity({ name: 'analysis_result' })
 export class AnalysisResultEntity {

@@ -81,6 +81,24 @@ describe('cell runs API', () => {
     entry = ((await kofi.get(`/api/notebooks/${notebook}/entries/${entry.entry.id}`)).body as EntryDetail);
   });
 
+  it('records only results the server computed', async () => {
+    const run = runCellResponseSchema.parse((await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), { model: saddleModel, task: saddleBranchTask })).body);
+    const { cached: _cached, ...output } = run;
+    const result = output.result as ContinuationResult;
+    const tampered = { ...output, result: { ...result, branch: { ...result.branch, events: [] } } };
+    const neverRun = { ...output, inputHash: 'f'.repeat(64) };
+    const save = (outputs: Record<string, unknown>) =>
+      kofi.post(`/api/notebooks/${notebook}/entries/${entry.entry.id}/revisions`, {
+        baseRevisionId: entry.head.id, title: 'Saddle-node check', entryDate: '2026-11-20', tags: [], document: saddleDoc(), outputs,
+      });
+    const bad = await save({ [SADDLE_BRANCH_CELL_ID]: tampered });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toEqual([{ path: `outputs.${SADDLE_BRANCH_CELL_ID}.result`, message: expect.stringMatching(/differs/) }]);
+    const unknown = await save({ [SADDLE_BRANCH_CELL_ID]: neverRun });
+    expect(unknown.status).toBe(400);
+    expect(unknown.body.error.fields[0].path).toBe(`outputs.${SADDLE_BRANCH_CELL_ID}.inputHash`);
+  });
+
   it('reports bad cell input as an error output naming the field, and the entry still saves', async () => {
     const badModel = { ...saddleModel, variables: [{ name: 'x', rhs: 'mu - * x' }] };
     const res = await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), { model: badModel, task: saddleBranchTask });

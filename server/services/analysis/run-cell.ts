@@ -12,7 +12,10 @@ import { presentRunOutcome, presentStoredResult } from '@server/presenters/cell-
 import { recordEvent } from '@server/services/audit/record-event.ts';
 import { requestInputHash } from './request-hash.ts';
 
-/** A run cut short by its time budget depends on the machine's load and the budget: not stored. */
+/**
+ * A run cut short by its time budget depends on the machine's load and the budget: it is stored
+ * (so its output can be recorded) but never answers a later run, which computes afresh.
+ */
 function stoppedByTimeLimit(result: AnalyzeResult): boolean {
   const reasons = [
     'stopReason' in result ? result.stopReason : undefined,
@@ -37,14 +40,15 @@ export interface RunCellProps {
 /**
  * Runs a cell's engine request, or answers from the store of earlier runs with the same input
  * hash. Runs happen outside any transaction (they may take seconds); the result and the audit
- * event are written together afterwards. Only successful runs are stored; request errors come
- * back as an error output with the field path. A cancelled run writes nothing.
+ * event are written together afterwards. Successful runs are stored (the latest run of an input
+ * replaces an earlier one); request errors come back as an error output with the field path and
+ * are not stored. A cancelled run writes nothing.
  */
 export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool }, props: RunCellProps): Promise<RunCellResponse> {
   const { model, task, timeLimitMs } = props.request;
   const inputHash = requestInputHash(ENGINE_VERSION, { model, task });
   const stored = await deps.dataSource.manager.findOne(AnalysisResultEntity, { where: { inputHash } });
-  if (stored) return presentStoredResult(stored);
+  if (stored && !stoppedByTimeLimit(stored.result)) return presentStoredResult(stored);
 
   const asked = typeof timeLimitMs === 'number' && Number.isInteger(timeLimitMs) && timeLimitMs > 0 ? timeLimitMs : undefined;
   const budgetMs = Math.min(asked ?? ENGINE_DEFAULTS.timeLimitMs, ENGINE_LIMITS.timeLimitMsMax);
@@ -61,7 +65,7 @@ export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool
   if (signal.aborted) return output;
 
   await deps.dataSource.transaction(async (manager) => {
-    if (outcome.status === 'ok' && !stoppedByTimeLimit(outcome.result)) {
+    if (outcome.status === 'ok') {
       await manager
         .createQueryBuilder()
         .insert()
@@ -74,7 +78,7 @@ export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool
           elapsedMs: outcome.elapsedMs,
           computedAt,
         })
-        .orIgnore()
+        .orUpdate(['engine_version', 'task_kind', 'result', 'elapsed_ms', 'computed_at'], ['input_hash'])
         .execute();
     }
     await recordEvent(manager, {

@@ -9,6 +9,7 @@ import type { ActingContext } from '@server/services/entries/service-context.ts'
 import { revisionContentHash } from './content-hash.ts';
 import { pruneOutputs } from './prune-outputs.ts';
 import { RevisionConflictError } from './revision-conflict.error.ts';
+import { verifyOutputs } from './verify-outputs.ts';
 
 export interface RecordRevisionProps {
   /** The entry, already loaded, authorized and locked (loadEntry with lock: true) in ctx.manager's transaction. */
@@ -25,6 +26,8 @@ export interface RecordRevisionProps {
   restoredFromId?: string | null;
   /** Delete the actor's working draft (default true: the draft is what was just recorded). */
   consumeDraft?: boolean;
+  /** The outputs come from an earlier revision, checked when it was recorded. */
+  outputsVerified?: boolean;
 }
 
 /** The text the search box looks in: title, tags and the document as plain text. */
@@ -42,7 +45,7 @@ export async function findRevisionWithAuthor(ctx: ActingContext, id: string): Pr
  *
  * The caller holds the entry row lock, so two saves on the same base cannot both win: the second
  * sees a different head and gets a RevisionConflictError carrying the current head. Outputs of
- * cells no longer in the document are dropped. The entry's list columns follow the new head; the
+ * cells no longer in the document are dropped; successful ones must match the server's stored run. The entry's list columns follow the new head; the
  * actor's working draft is consumed (unless told otherwise); an audit event is written in the
  * same transaction.
  */
@@ -54,6 +57,7 @@ export async function recordRevision(ctx: ActingContext, props: RecordRevisionPr
     throw new RevisionConflictError(head);
   }
   const outputs = pruneOutputs(props.document, props.outputs);
+  if (!props.outputsVerified) await verifyOutputs(ctx.manager, outputs);
   const content = { title: props.title, entryDate: props.entryDate, tags: props.tags, document: props.document, outputs };
   const number = entry.revisionCount + 1;
   const revision = ctx.manager.create(RevisionEntity, {

@@ -28,5 +28,6 @@ export async function restoreRevision(
     restoredFromId: old.id,
     // A working draft is kept: its base is now stale, so saving it later asks to rebase.
     consumeDraft: false,
+    outputsVerified: true,
   });
 }
