@@ -1,11 +1,10 @@
-import { mkdirSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
+export { SCREENSHOTS_DIR as SCREENSHOT_DIR } from '../support/browser.ts';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE, type DemoPersonKey } from '../../seeds/demo-people.ts';
 
-/** Browser-test helpers shared by the e2e files: signing in, accessibility checks, screenshots. */
-export const SCREENSHOT_DIR = fileURLToPath(new URL('./screenshots/', import.meta.url));
+/** Browser-test helpers shared by the e2e files: signing in, the demo notebooks, accessibility checks, themes. */
 const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 
 export async function signIn(page: Page, baseUrl: string, who: DemoPersonKey): Promise<void> {
@@ -61,11 +60,6 @@ export async function seriousAxeViolations(page: Page): Promise<AxeViolation[]> 
     }));
   });
   return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-}
-
-export async function screenshot(page: Page, name: string): Promise<void> {
-  mkdirSync(SCREENSHOT_DIR, { recursive: true });
-  await page.screenshot({ path: `${SCREENSHOT_DIR}${name}.png`, fullPage: true });
 }
 
 /** Light, then dark, as the system preference (the default theme choice follows it). */

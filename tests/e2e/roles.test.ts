@@ -1,12 +1,11 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
-import { launchBrowser } from '../support/browser.ts';
+import { launchBrowser, saveScreenshot } from '../support/browser.ts';
 import {
   inBothThemes,
   listedNotebookTitles,
   notebookTitlesOf,
-  screenshot,
   seriousAxeViolations,
   signIn,
   signOut,
@@ -98,7 +97,7 @@ describe('the site administrator', () => {
     expect(
       await page.getByRole('combobox', { name: `Site role of ${DEMO_PEOPLE.admin.name}` }).isDisabled(),
     ).toBe(true);
-    await screenshot(page, 'admin-users');
+    await saveScreenshot(page, 'admin-users');
     await signOut(page);
   });
 });
@@ -118,7 +117,9 @@ describe('the principal investigator', () => {
     expect(await page.getByRole('button', { name: `Remove ${DEMO_PEOPLE.reader.name}` }).isVisible()).toBe(
       true,
     );
-    expect(await page.getByRole('heading', { name: 'No entries yet' }).isVisible()).toBe(true);
+    // the notebook's log sits beside the members; a PI may write in it
+    await page.getByRole('heading', { name: 'Log', exact: true }).waitFor();
+    expect(await page.getByRole('button', { name: 'New entry' }).isVisible()).toBe(true);
   });
 
   it('gets field messages when adding a member badly, beside the field, also from the server', async () => {
@@ -180,6 +181,9 @@ describe('the reader', () => {
     expect(await page.getByRole('button', { name: /^Remove / }).count()).toBe(0);
     expect(await page.getByRole('combobox', { name: /^Role of/ }).count()).toBe(0);
     expect(await page.getByText('Only the principal investigator can add members').isVisible()).toBe(true);
+    // readers read the log but don't write in it
+    await page.getByRole('heading', { name: 'Log', exact: true }).waitFor();
+    expect(await page.getByRole('button', { name: 'New entry' }).count()).toBe(0);
   });
 
   it('signs out, and the signed-in pages are then closed to them', async () => {
@@ -202,18 +206,18 @@ describe('accessibility and look', () => {
     await page.getByRole('heading', { name: 'Sign in' }).waitFor();
     await inBothThemes(page, async (theme) => {
       found[`sign-in ${theme}`] = await seriousAxeViolations(page);
-      await screenshot(page, `sign-in-${theme}`);
+      await saveScreenshot(page, `sign-in-${theme}`);
     });
     await signIn(page, baseUrl, 'pi');
     await inBothThemes(page, async (theme) => {
       found[`notebooks ${theme}`] = await seriousAxeViolations(page);
-      await screenshot(page, `notebooks-${theme}`);
+      await saveScreenshot(page, `notebooks-${theme}`);
     });
     await page.goto(notebookUrl.get(DEMO_NOTEBOOKS.stirredTank.title)!);
     await page.getByRole('list', { name: /^Members of/ }).waitFor();
     await inBothThemes(page, async (theme) => {
       found[`notebook ${theme}`] = await seriousAxeViolations(page);
-      await screenshot(page, `notebook-${theme}`);
+      await saveScreenshot(page, `notebook-${theme}`);
     });
     expect(found).toEqual({
       'sign-in light': [],

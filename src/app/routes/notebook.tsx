@@ -2,6 +2,7 @@ import { useParams } from 'react-router';
 import { QueryError } from '@/components/ui/query-error.tsx';
 import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
 import { NotFound } from '@/components/ui/status-pages.tsx';
+import { EntryLog } from '@/features/entries/index.ts';
 import { MembersPanel } from '@/features/members/components/members-panel.tsx';
 import { useNotebook } from '@/features/notebooks/api/get-notebook.ts';
 import { NotebookOverview } from '@/features/notebooks/components/notebook-overview.tsx';
@@ -25,7 +26,10 @@ export default function NotebookRoute() {
   const nb = notebook.data;
   return (
     <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_20rem]">
-      <NotebookOverview notebook={nb} />
+      <div className="min-w-0 space-y-10">
+        <NotebookOverview notebook={nb} />
+        <EntryLog notebookId={nb.id} canWrite={nb.role !== 'reader'} />
+      </div>
       <aside>
         <MembersPanel
           notebookId={nb.id}

@@ -1,6 +1,5 @@
 import type { Notebook } from '@shared/api/notebooks.ts';
 import { NotebookRoleBadge } from '@/components/ui/badge.tsx';
-import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { formatDate } from '@/lib/format.ts';
 
 export function NotebookOverview({ notebook }: { notebook: Notebook }) {
@@ -26,12 +25,6 @@ export function NotebookOverview({ notebook }: { notebook: Notebook }) {
       ) : (
         <p className="text-sm text-ink-muted italic">No description yet.</p>
       )}
-      <EmptyState title="No entries yet">
-        Entries are the dated pages of this log. Each one holds written notes beside live computation: the
-        model&apos;s equations, equilibria and the branches followed through a parameter, the folds found on
-        them with their eigenvalues and stability, bistable regions in two parameters, and simulated
-        trajectories. Every save is kept as a revision, and the principal investigator reviews and signs them.
-      </EmptyState>
     </section>
   );
 }
