@@ -1,6 +1,7 @@
 import type { Eigenvalue, Stability } from '@shared/engine/contract.ts';
 import type { Tolerances } from '../defaults.ts';
 import { eigenvalues } from '../linalg/eigen.ts';
+import { isSymmetric, symmetricEigenvalues } from '../linalg/eigen-symmetric.ts';
 
 export interface StabilityInfo {
   stability: Stability;
@@ -14,9 +15,11 @@ export interface StabilityInfo {
  * and Chaos, §6.3): "stable" when every Re λ < −tol, "unstable" when some Re λ > tol, otherwise
  * "neutral" (linearisation inconclusive), tol = neutral·max(1, max|λ|). Eigenvalues are sorted by
  * decreasing real part, then decreasing imaginary part; unstableDimension counts Re λ > tol.
+ * A symmetric Jacobian (gradient-like systems, discretised diffusion) takes the faster
+ * symmetric solver; any other the nonsymmetric QR.
  */
 export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances): StabilityInfo {
-  const e = eigenvalues(jacobian, n, tol.eigenMaxIterations);
+  const e = isSymmetric(jacobian, n) ? symmetric(jacobian, n, tol) : eigenvalues(jacobian, n, tol.eigenMaxIterations);
   const list: Eigenvalue[] = [];
   let largest = 0;
   for (let i = 0; i < n; i++) {
@@ -34,4 +37,9 @@ export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances):
   }
   const stability: Stability = unstable > 0 ? 'unstable' : neutral > 0 || !e.converged ? 'neutral' : 'stable';
   return { stability, eigenvalues: list, unstableDimension: unstable };
+}
+
+function symmetric(jacobian: Float64Array, n: number, tol: Tolerances) {
+  const { values, converged } = symmetricEigenvalues(jacobian, n, tol.eigenMaxIterations);
+  return { re: values, im: new Float64Array(n), converged };
 }

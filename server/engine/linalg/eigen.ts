@@ -1,3 +1,5 @@
+import { normalisedCopy } from './scale.ts';
+
 /**
  * Eigenvalues of a real, generally nonsymmetric n×n matrix (row-major): balancing, reduction to
  * upper Hessenberg form by stabilised elementary similarity transforms, then the Francis
@@ -16,10 +18,15 @@ export interface Eigenvalues {
 }
 
 export function eigenvalues(matrix: Float64Array, n: number, maxIterations = 60): Eigenvalues {
-  const a = matrix.slice(0, n * n);
+  const { a, scale } = normalisedCopy(matrix, n);
   balance(a, n);
   toHessenberg(a, n);
-  return hessenbergQr(a, n, maxIterations);
+  const e = hessenbergQr(a, n, maxIterations);
+  for (let i = 0; i < n; i++) {
+    e.re[i] *= scale;
+    e.im[i] *= scale;
+  }
+  return e;
 }
 
 /** Scale rows and columns by powers of 2 so their norms are comparable (exact, similarity). */

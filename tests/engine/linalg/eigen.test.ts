@@ -2,6 +2,7 @@ import fc from 'fast-check';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { describe, expect, it } from 'vitest';
 import { eigenvalues } from '@server/engine/linalg/eigen.ts';
+import { isSymmetric, symmetricEigenvalues } from '@server/engine/linalg/eigen-symmetric.ts';
 import { expectClose } from '../../support/tolerances.ts';
 
 const sorted = (re: ArrayLike<number>, im: ArrayLike<number>) =>
@@ -77,5 +78,37 @@ describe('eigenvalues', () => {
       expectClose(r, k + 1, 1e-12);
       expect(i).toBe(0);
     });
+  });
+});
+
+describe('symmetricEigenvalues', () => {
+  it('finds the closed-form spectrum of the discrete Laplacian', () => {
+    // tridiag(1, −2, 1) of order n: λ_k = −2 + 2cos(kπ/(n+1)) (closed form; common practice).
+    const n = 50;
+    const m = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) {
+      m[i * n + i] = -2;
+      if (i > 0) m[i * n + i - 1] = m[(i - 1) * n + i] = 1;
+    }
+    expect(isSymmetric(m, n)).toBe(true);
+    const { values, converged } = symmetricEigenvalues(m, n);
+    expect(converged).toBe(true);
+    const exact = Array.from({ length: n }, (_, k) => -2 + 2 * Math.cos(((k + 1) * Math.PI) / (n + 1))).sort((a, b) => a - b);
+    Array.from(values).sort((a, b) => a - b).forEach((v, k) => expectClose(v, exact[k], 0, 1e-13));
+  });
+
+  it('agrees with ml-matrix on random dense symmetric matrices (property)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 20 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.double({ min: -10, max: 10, noNaN: true }), { minLength: n * n, maxLength: n * n }))), ([n, entries]) => {
+        const a = Float64Array.from(entries);
+        for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) a[j * n + i] = a[i * n + j];
+        const ref = new EigenvalueDecomposition(new Matrix(Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n)))), { assumeSymmetric: true });
+        const ours = Array.from(symmetricEigenvalues(a, n).values).sort((x, y) => x - y);
+        const theirs = [...ref.realEigenvalues].sort((x, y) => x - y);
+        const scale = 1 + 10 * n;
+        ours.forEach((v, k) => expect(Math.abs(v - theirs[k])).toBeLessThanOrEqual(1e-11 * scale));
+      }),
+      { numRuns: 300 },
+    );
   });
 });
