@@ -145,6 +145,13 @@ describe('cell runs API', () => {
       }, 500);
     });
     await Promise.all([pending.then(() => undefined, () => undefined), aborted]);
+    // The run ends (it would otherwise hold its worker for a minute).
+    let state = 'running';
+    for (let i = 0; i < 100 && state !== 'idle'; i += 1) {
+      state = runProgressSchema.parse((await kofi.get(runUrl(cellId))).body).state;
+      if (state !== 'idle') await new Promise((r) => setTimeout(r, 50));
+    }
+    expect(state).toBe('idle');
 
     // With the worker stopped, the next run goes through well within the test's time limit.
     const next = (await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), { model: saddleModel, task: { ...saddleBranchTask, bounds: { min: -1, max: 3 } } })).body as RunCellResponse;
