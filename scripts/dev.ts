@@ -2,9 +2,8 @@ import 'reflect-metadata';
 import { spawn, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 import { loadEnvOrExit } from '@server/env.ts';
-import { runSeed } from '../seeds/seed.ts';
 import { demoBanner } from './demo-banner.ts';
-import { migrate, startLocalServices } from './local-services.ts';
+import { prepareLocalStack } from './local-services.ts';
 
 /**
  * `npm run dev`: the same local services, the API under `tsx watch` (restarts on change)
@@ -29,11 +28,9 @@ process.once('SIGINT', () => shutdown(0));
 process.once('SIGTERM', () => shutdown(0));
 
 try {
-  const services = await startLocalServices(env, log);
-  stopServices = services.stop;
-  const dataSource = await migrate(env, log);
-  await runSeed(dataSource, log);
-  await dataSource.destroy();
+  await prepareLocalStack(env, log, (started) => {
+    stopServices = started.stop;
+  });
   const childEnv = { ...process.env, PUBLIC_URL: publicUrl, PORT: String(env.PORT) };
   const bin = (name: string) => path.join(root, 'node_modules/.bin', name);
   children.push(spawn(bin('tsx'), ['watch', '--clear-screen=false', 'server/index.ts'], { cwd: root, env: childEnv, stdio: 'inherit' }));

@@ -4,6 +4,7 @@ import { startFakeS3, type FakeS3 } from '../fake-s3/start-fake-s3.ts';
 import { createDataSource } from '@server/data-source.ts';
 import type { Env } from '@server/env.ts';
 import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
+import { runSeed } from '../seeds/seed.ts';
 import { PostgresCluster, describeDatabaseUrl, ensurePostgresBinaries } from './postgres/postgres-cluster.ts';
 
 /**
@@ -100,4 +101,26 @@ async function alreadyRunning(env: Env): Promise<boolean> {
     port: describeDatabaseUrl(env.DATABASE_URL).port,
   });
   return cluster.initialized && (await cluster.isRunning());
+}
+
+/**
+ * What `npm start` and `npm run dev` both do first: start the local services, apply the
+ * migrations and seed the demo once. `onStarted` receives the services as soon as they
+ * run, so a Ctrl-C during the rest can still stop them; a failure stops them itself.
+ */
+export async function prepareLocalStack(env: Env, log: Log, onStarted: (services: LocalServices) => void = () => undefined): Promise<LocalServices> {
+  const services = await startLocalServices(env, log);
+  onStarted(services);
+  try {
+    const dataSource = await migrate(env, log);
+    try {
+      await runSeed(dataSource, log);
+    } finally {
+      await dataSource.destroy();
+    }
+    return services;
+  } catch (error) {
+    await services.stop();
+    throw error;
+  }
 }

@@ -2,10 +2,9 @@ import 'reflect-metadata';
 import path from 'node:path';
 import { loadEnvOrExit } from '@server/env.ts';
 import { startServer } from '@server/index.ts';
-import { runSeed } from '../seeds/seed.ts';
 import { buildClientIfStale } from './client-build.ts';
 import { demoBanner } from './demo-banner.ts';
-import { migrate, startLocalServices } from './local-services.ts';
+import { prepareLocalStack } from './local-services.ts';
 import { PostgresSetupError } from './postgres/postgres-cluster.ts';
 
 /**
@@ -31,11 +30,9 @@ process.once('SIGINT', () => shutdown(0));
 process.once('SIGTERM', () => shutdown(0));
 
 try {
-  const services = await startLocalServices(env, log);
-  stopAll = services.stop;
-  const dataSource = await migrate(env, log);
-  await runSeed(dataSource, log);
-  await dataSource.destroy();
+  const services = await prepareLocalStack(env, log, (started) => {
+    stopAll = started.stop;
+  });
   const clientDir = path.join(root, 'dist/client');
   buildClientIfStale(root, clientDir, log);
   const server = await startServer(env, { clientDir });
