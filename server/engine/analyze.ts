@@ -7,7 +7,6 @@ import {
   type AnalyzeResult,
   type EngineFieldError,
   type ResultByKind,
-  type TaskKind,
 } from '@shared/engine/contract.ts';
 import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
 import { withTolerances, type Tolerances } from './defaults.ts';
@@ -62,7 +61,7 @@ export function validateModel(model: unknown): EngineFieldError[] {
  * throws EngineRequestError (code, message, path, position); a numerical failure is a normal
  * result with a stop reason.
  */
-export function analyze<K extends TaskKind = TaskKind>(request: AnalyzeRequestInput & { task: { kind: K } }, options?: AnalyzeOptions): ResultByKind[K];
+export function analyze<R extends AnalyzeRequestInput>(request: R, options?: AnalyzeOptions): ResultByKind[R['task']['kind']];
 export function analyze(request: unknown, options?: AnalyzeOptions): AnalyzeResult;
 export function analyze(request: unknown, options: AnalyzeOptions = {}): AnalyzeResult {
   const started = performance.now();

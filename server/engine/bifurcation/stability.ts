@@ -23,6 +23,8 @@ export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances):
   const list: Eigenvalue[] = [];
   let largest = 0;
   for (let i = 0; i < n; i++) {
+    // A QR iteration that did not converge leaves NaN for the eigenvalues it did not reach: left out.
+    if (Number.isNaN(e.re[i]) || Number.isNaN(e.im[i])) continue;
     // Exact zeros print as 0, not -0.
     list.push({ re: e.re[i] + 0, im: e.im[i] + 0 });
     largest = Math.max(largest, Math.hypot(e.re[i], e.im[i]));
