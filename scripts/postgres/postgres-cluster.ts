@@ -36,10 +36,10 @@ export function findPostgresBinDir(): string | null {
  * Finds the server binaries; when they are missing installs Debian's package as root,
  * otherwise stops with a message naming the package.
  */
-export function ensurePostgresBinaries(log: (line: string) => void = console.log): string {
+export function ensurePostgresBinaries(log: (line: string) => void = console.log, options: { asRoot?: boolean } = {}): string {
   const found = findPostgresBinDir();
   if (found) return found;
-  if (!isRoot()) {
+  if (!(options.asRoot ?? isRoot())) {
     throw new PostgresSetupError(
       `PostgreSQL's server binaries were not found under /usr/lib/postgresql/*/bin.\n` +
         `Install Debian's "${POSTGRES_PACKAGE}" package (sudo apt-get install -y ${POSTGRES_PACKAGE}) and run the command again.`,

@@ -9,7 +9,7 @@ import { createDataSource } from '@server/data-source.ts';
 import { runSeed } from '../../seeds/seed.ts';
 import { DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import { ensurePostgres, prepareLocalStack } from '../../scripts/local-services.ts';
-import { findPostgresBinDir } from '../../scripts/postgres/postgres-cluster.ts';
+import { ensurePostgresBinaries, findPostgresBinDir } from '../../scripts/postgres/postgres-cluster.ts';
 import { freePort } from '../support/free-port.ts';
 
 /** What `npm start` does before serving: a private cluster, the S3 fake, the SMTP sink, migrations, the seed. */
@@ -26,6 +26,18 @@ const listening = (port: number) =>
 describe('local services', () => {
   it('finds Debian PostgreSQL binaries', () => {
     expect(findPostgresBinDir()).toMatch(/^\/usr\/lib\/postgresql\/\d+\/bin$/);
+  });
+
+  // As root the start installs the package itself; as anyone else it must stop and name the package.
+  it('tells a non-root user which Debian package to install when the binaries are missing', () => {
+    const saved = process.env.PG_BIN_DIR;
+    process.env.PG_BIN_DIR = '/nonexistent';
+    try {
+      expect(() => ensurePostgresBinaries(() => undefined, { asRoot: false })).toThrow(/not found[\s\S]*Install Debian's "postgresql" package \(sudo apt-get install -y postgresql\)/);
+    } finally {
+      if (saved === undefined) delete process.env.PG_BIN_DIR;
+      else process.env.PG_BIN_DIR = saved;
+    }
   });
 
   it('creates the cluster on first run, starts everything, migrates, seeds once, and stops all it started', async () => {
