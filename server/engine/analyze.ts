@@ -71,9 +71,10 @@ export function analyze(request: unknown, options: AnalyzeOptions = {}): Analyze
     throw new EngineRequestError(fields[0] as EngineFieldError & { code: typeof ENGINE_ERROR_CODES.invalidRequest }, fields);
   }
   const { model: modelInput, task, timeLimitMs } = parsed.data;
-  const model = compileModel(modelInput);
+  // The budget covers compilation too (symbolic derivatives of a large model take a while).
   const budget = options.timeLimitMs ?? timeLimitMs ?? ENGINE_DEFAULTS.timeLimitMs;
   const ctx: TaskContext = { deadline: Date.now() + budget, tolerances: withTolerances(options.tolerances) };
+  const model = compileModel(modelInput);
   const engine = () => ({ version: ENGINE_VERSION, elapsedMs: Math.round((performance.now() - started) * 1000) / 1000 });
   switch (task.kind) {
     case 'equilibria': {
