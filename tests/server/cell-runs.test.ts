@@ -112,6 +112,10 @@ describe('cell runs API', () => {
     expect(unknownParameter.status).toBe('error');
     expect(unknownParameter.error?.path).toBe('task.parameter');
 
+    const badBudget = (await kofi.post(runUrl(SADDLE_BRANCH_CELL_ID), { model: saddleModel, task: saddleBranchTask, timeLimitMs: -5 })).body as RunCellResponse;
+    expect(badBudget.status).toBe('error');
+    expect(badBudget.error?.path).toBe('timeLimitMs');
+
     const doc = saddleDoc('With a typo in the model.');
     const saved = await kofi.post(`/api/notebooks/${notebook}/entries/${entry.entry.id}/revisions`, {
       baseRevisionId: entry.head.id, title: 'Saddle-node check', entryDate: '2026-11-20', tags: [], document: doc, outputs: { [SADDLE_BRANCH_CELL_ID]: output },

@@ -1,7 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { RunCellInput, RunCellResponse } from '@shared/api/entries.ts';
-import type { AnalyzeResult } from '@shared/engine/contract.ts';
-import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
+import { analyzeRequestSchema, ENGINE_ERROR_CODES, type AnalyzeResult } from '@shared/engine/contract.ts';
+import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
 import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
@@ -47,16 +47,24 @@ export interface RunCellProps {
 export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool }, props: RunCellProps): Promise<RunCellResponse> {
   const { model, task, timeLimitMs } = props.request;
   const inputHash = requestInputHash(ENGINE_VERSION, { model, task });
+  const budgetCheck = analyzeRequestSchema.shape.timeLimitMs.safeParse(timeLimitMs);
+  if (!budgetCheck.success) {
+    const message = `timeLimitMs: ${budgetCheck.error.issues[0]?.message ?? 'not a valid time budget'}`;
+    return presentRunOutcome(
+      { status: 'error', error: { code: ENGINE_ERROR_CODES.invalidRequest, message, path: 'timeLimitMs' }, elapsedMs: 0 },
+      { inputHash, engineVersion: ENGINE_VERSION, computedAt: new Date() },
+    );
+  }
   const stored = await deps.dataSource.manager.findOne(AnalysisResultEntity, { where: { inputHash } });
   if (stored && !stoppedByTimeLimit(stored.result)) return presentStoredResult(stored);
 
-  const asked = typeof timeLimitMs === 'number' && Number.isInteger(timeLimitMs) && timeLimitMs > 0 ? timeLimitMs : undefined;
-  const budgetMs = Math.min(asked ?? ENGINE_DEFAULTS.timeLimitMs, ENGINE_LIMITS.timeLimitMsMax);
+  const budgetMs = budgetCheck.data ?? ENGINE_DEFAULTS.timeLimitMs;
   const run = runRegistry.begin({ entryId: props.entry.id, cellId: props.cellId, startedBy: props.actor, budgetMs });
   const signal = props.signal ? AbortSignal.any([props.signal, run.controller.signal]) : run.controller.signal;
   let outcome: AnalysisOutcome;
   try {
-    outcome = await deps.pool.run({ model, task, ...(asked ? { timeLimitMs: asked } : {}) }, { budgetMs, signal, onStart: () => runRegistry.markStarted(run) });
+    const request = { model, task, ...(budgetCheck.data !== undefined ? { timeLimitMs: budgetCheck.data } : {}) };
+    outcome = await deps.pool.run(request, { budgetMs, signal, onStart: () => runRegistry.markStarted(run) });
   } finally {
     runRegistry.finish(run);
   }
