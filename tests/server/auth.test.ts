@@ -121,4 +121,21 @@ describe('sign-in rate limit', () => {
       await limited.close();
     }
   });
+
+  it('limits password-reset requests and invitations the same way', async () => {
+    const limited = await createTestApp({ rateLimits: { resetRequests: 2, invites: 1 } });
+    try {
+      const { agent, csrf } = await newAgent(limited.app);
+      const ask = () => agent.post('/api/auth/password-reset').set('x-csrf-token', csrf).send({ email: 'someone@test.example' });
+      expect((await ask()).status).toBe(202);
+      expect((await ask()).status).toBe(202);
+      expect((await ask()).status).toBe(429);
+      const admin = await signIn(limited.app, DEMO_PEOPLE.admin);
+      const invite = (label: string) => admin.agent.post('/api/invites').set('x-csrf-token', admin.csrf).send({ email: `${label}.${Date.now()}@test.example`, name: 'Limited' });
+      expect((await invite('first')).status).toBe(201);
+      expect((await invite('second')).status).toBe(429);
+    } finally {
+      await limited.close();
+    }
+  });
 });
