@@ -148,7 +148,7 @@ export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPo
   }
 
   const placed = ['modelCellId', 'task'];
-  const modelProblems = (problems ?? []).filter((p) => p.path.startsWith('model'));
+  const modelProblems = (problems ?? []).filter((p) => p.path === 'model' || p.path.startsWith('model.'));
   const otherProblems = unplacedProblems(problems, [...placed, 'model']);
   const canRun = analysis && editable && freshness !== 'invalid';
 

@@ -4,6 +4,7 @@ import type { Node as PmNode } from '@tiptap/pm/model';
 import { ReactNodeViewRenderer, type ReactNodeViewProps } from '@tiptap/react';
 import type { ComponentType } from 'react';
 import type { CellKind } from '@shared/cells/kinds.ts';
+import { blockInsertPosition } from './insert-position.ts';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
@@ -64,8 +65,8 @@ export const CellNode = Node.create<CellNodeOptions>({
     return {
       insertCell:
         (kind, input) =>
-        ({ commands }) =>
-          commands.insertContent({ type: this.name, attrs: { id: newCellId(), kind, input } }),
+        ({ state, commands }) =>
+          commands.insertContentAt(blockInsertPosition(state), { type: this.name, attrs: { id: newCellId(), kind, input } }),
       moveCell:
         (pos, direction) =>
         ({ state, tr, dispatch }) => {

@@ -1,4 +1,5 @@
 import { Node, mergeAttributes } from '@tiptap/core';
+import { blockInsertPosition } from './insert-position.ts';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
@@ -24,8 +25,8 @@ export const ImageNode = Node.create({
     return {
       insertImage:
         (attrs) =>
-        ({ commands }) =>
-          commands.insertContent({ type: this.name, attrs }),
+        ({ state, commands }) =>
+          commands.insertContentAt(blockInsertPosition(state), { type: this.name, attrs }),
     };
   },
 });

@@ -1,6 +1,7 @@
 import { InputRule, Node, mergeAttributes } from '@tiptap/core';
 import { ReactNodeViewRenderer } from '@tiptap/react';
 import { MathView } from '../components/math-view.tsx';
+import { blockInsertPosition } from './insert-position.ts';
 
 declare module '@tiptap/core' {
   interface Commands<ReturnType> {
@@ -73,8 +74,8 @@ export const DisplayMath = Node.create({
     return {
       insertDisplayMath:
         (latex = '') =>
-        ({ commands }) =>
-          commands.insertContent({ type: this.name, attrs: { latex } }),
+        ({ state, commands }) =>
+          commands.insertContentAt(blockInsertPosition(state), { type: this.name, attrs: { latex } }),
     };
   },
   addInputRules() {
