@@ -201,7 +201,7 @@ describe('continuation: stop reasons', () => {
   });
 
   it('stops with "time-limit" and keeps what it computed', () => {
-    const r = analyze({ model: bratuModel(50), task: { kind: 'continuation', parameter: 'lambda', bounds: { min: -1, max: 4 }, maxPoints: 20000, step: { initial: 1e-4, min: 1e-6, max: 1e-4 } }, timeLimitMs: 100 });
+    const r = analyze({ model: bratuModel(40), task: { kind: 'continuation', parameter: 'lambda', bounds: { min: -1, max: 4 }, maxPoints: 20000, step: { initial: 1e-4, min: 1e-6, max: 1e-4 } }, timeLimitMs: 1000 });
     expect(r.branch.stopReason).toBe('time-limit');
     expect(r.branch.points.length).toBeGreaterThan(1);
   });

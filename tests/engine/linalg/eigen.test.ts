@@ -100,7 +100,8 @@ describe('symmetricEigenvalues', () => {
   it('agrees with ml-matrix on random dense symmetric matrices (property)', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 20 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.double({ min: -10, max: 10, noNaN: true }), { minLength: n * n, maxLength: n * n }))), ([n, entries]) => {
-        const a = Float64Array.from(entries);
+        // Subnormal entries are flushed: the reference library returns NaN on some of them.
+        const a = Float64Array.from(entries, (v) => (Math.abs(v) < 1e-100 ? 0 : v));
         for (let i = 0; i < n; i++) for (let j = 0; j < i; j++) a[j * n + i] = a[i * n + j];
         const ref = new EigenvalueDecomposition(new Matrix(Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, i * n + n)))), { assumeSymmetric: true });
         const ours = Array.from(symmetricEigenvalues(a, n).values).sort((x, y) => x - y);
