@@ -21,6 +21,9 @@ function toHttpError(error: unknown): HttpError | null {
   const e = error as BodyParserError;
   if (e?.type === 'entity.parse.failed') return new MalformedJsonError();
   if (e?.type === 'entity.too.large') return new PayloadTooLargeError();
+  if (error instanceof URIError) {
+    return new ValidationError('The address is not valid', [{ path: '(path)', message: 'The address contains a broken percent-encoding' }]);
+  }
   if (e?.expose && typeof e.status === 'number' && e.status >= 400 && e.status < 500) {
     return new ValidationError(`The request could not be read: ${e.message}`, [{ path: '(body)', message: e.message }]);
   }

@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LIMITS } from '@shared/domain/limits.ts';
 import { DEMO_PEOPLE } from '../../seeds/demo-people.ts';
@@ -55,6 +56,7 @@ const CASES: Case[] = [
   { name: 'member with nothing', who: 'pi', method: 'post', url: () => `/api/notebooks/${notebookId}/members`, body: {}, status: 400, code: 'validation_failed', fields: ['email', 'role'] },
   { name: 'notebook id that is not a UUID', who: 'pi', method: 'patch', url: () => '/api/notebooks/not-a-uuid', body: { title: 'x' }, status: 404, code: 'not_found' },
   { name: 'member id that is not a UUID', who: 'pi', method: 'patch', url: () => `/api/notebooks/${notebookId}/members/12`, body: { role: 'reader' }, status: 404, code: 'not_found' },
+  { name: 'a path with broken percent-encoding', who: 'pi', method: 'patch', url: () => '/api/notebooks/%E0%A4%A', body: { title: 'x' }, status: 400, code: 'validation_failed' },
   { name: 'an API route that does not exist', who: 'pi', method: 'post', url: () => '/api/nothing-here', body: {}, status: 404, code: 'not_found' },
   {
     name: 'a body over the size limit',
@@ -82,4 +84,27 @@ describe('bad input', () => {
     expect(JSON.stringify(res.body)).not.toMatch(/at .*\.ts:\d+|node_modules|stack/i);
     if (c.fields) expect(res.body.error.fields.map((f: { path: string }) => f.path).sort()).toEqual([...c.fields].sort());
   });
+});
+
+describe('any JSON at all', () => {
+  const targets = [
+    { method: 'post' as const, url: () => '/api/notebooks' },
+    { method: 'patch' as const, url: () => `/api/notebooks/${notebookId}` },
+    { method: 'post' as const, url: () => `/api/notebooks/${notebookId}/members` },
+    { method: 'post' as const, url: () => '/api/account/password' },
+  ];
+  it.each(targets.map((target) => ({ ...target, label: `${target.method.toUpperCase()} ${target.url()}` })))(
+    'never gets a 500 from $label',
+    async (target) => {
+      await fc.assert(
+        fc.asyncProperty(fc.jsonValue({ maxDepth: 3 }), async (value) => {
+          const res = await pi.agent[target.method](target.url()).set('x-csrf-token', pi.csrf).set('content-type', 'application/json').send(JSON.stringify(value));
+          expect(res.status).toBeGreaterThanOrEqual(200);
+          expect(res.status).toBeLessThan(500);
+          if (res.status >= 400) expect(typeof res.body.error.code).toBe('string');
+        }),
+        { numRuns: 40 },
+      );
+    },
+  );
 });
