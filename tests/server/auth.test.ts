@@ -36,6 +36,21 @@ describe('sign-in', () => {
     expect(event?.actorId).toBe(res.body.user.id);
   });
 
+  it('marks the cookie Secure when the public address is https (behind a TLS proxy on this machine)', async () => {
+    const https = await createTestApp({ env: { PUBLIC_URL: 'https://bifolio.example' } });
+    try {
+      // The first answer that starts a session (the CSRF token lives in it) sets the cookie.
+      const res = await request(https.app).get('/api/auth/csrf').set('x-forwarded-proto', 'https');
+      expect(res.status).toBe(200);
+      const cookie = [res.headers['set-cookie']].flat().find((c: string) => c?.startsWith(`${SESSION_COOKIE}=`));
+      expect(cookie).toMatch(/; Secure/i);
+      expect(cookie).toMatch(/HttpOnly/i);
+      expect(res.headers['strict-transport-security']).toBeDefined();
+    } finally {
+      await https.close();
+    }
+  });
+
   it('accepts the e-mail address in any letter case', async () => {
     await expect(signIn(t.app, { email: DEMO_PEOPLE.reader.email.toUpperCase(), password: DEMO_PEOPLE.reader.password })).resolves.toBeTruthy();
   });
