@@ -101,6 +101,7 @@ export function compileParsedModel(parsed: ParsedModel): CompiledModel {
       return f;
     },
     get hessianTimes(): HessianTimes {
+      if (!hessian && secondDerivativeCount(jacobianEntries) > SECOND_DERIVATIVES_MAX) hessian = differencedHessianTimes(n, jacobian);
       if (!hessian) {
         // out[i·n + k] = Σ_j H_ijk v_j, with H_ijk = ∂(∂f_i/∂x_j)/∂x_k.
         const terms = new Map<number, string[]>();
@@ -124,6 +125,50 @@ export function compileParsedModel(parsed: ParsedModel): CompiledModel {
       }
       return hessian;
     },
+  };
+}
+
+/**
+ * Largest number of symbolic second derivatives formed for D²f(v, ·). Beyond it (large dense
+ * models, where forming them would take minutes) D²f(v, ·) is the central difference of the
+ * exact Jacobian along v, (J(x + hv) − J(x − hv))/(2h), h = 1e-5·(1 + ‖x‖∞)/‖v‖∞, accurate to
+ * about 1e-10 relative (truncation h², rounding ε/h).
+ */
+export const SECOND_DERIVATIVES_MAX = 200_000;
+
+function secondDerivativeCount(entries: Array<{ node: Node }>): number {
+  let count = 0;
+  for (const { node } of entries) {
+    for (const s of symbolsOf(node)) if (s.startsWith('x_')) count++;
+    if (count > SECOND_DERIVATIVES_MAX) break;
+  }
+  return count;
+}
+
+export function differencedHessianTimes(n: number, jacobian: MatrixFunction): HessianTimes {
+  const plus = new Float64Array(n * n);
+  const minus = new Float64Array(n * n);
+  const xp = new Float64Array(n);
+  const xm = new Float64Array(n);
+  return (x, p, v, out) => {
+    let xs = 0;
+    let vs = 0;
+    for (let i = 0; i < n; i++) {
+      xs = Math.max(xs, Math.abs(x[i]));
+      vs = Math.max(vs, Math.abs(v[i]));
+    }
+    if (vs === 0) {
+      out.fill(0, 0, n * n);
+      return;
+    }
+    const h = (1e-5 * (1 + xs)) / vs;
+    for (let i = 0; i < n; i++) {
+      xp[i] = x[i] + h * v[i];
+      xm[i] = x[i] - h * v[i];
+    }
+    jacobian(xp, p, plus);
+    jacobian(xm, p, minus);
+    for (let i = 0; i < n * n; i++) out[i] = (plus[i] - minus[i]) / (2 * h);
   };
 }
 

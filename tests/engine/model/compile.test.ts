@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { modelSchema, type ModelInput } from '@shared/engine/contract.ts';
-import { compileModel } from '@server/engine/model/compile.ts';
+import { compileModel, differencedHessianTimes } from '@server/engine/model/compile.ts';
 import { expectClose } from '../../support/tolerances.ts';
 
 const compile = (m: ModelInput) => compileModel(modelSchema.parse(m));
@@ -82,6 +82,15 @@ describe('compileModel', () => {
       const col = centralDifference(jv, x, k, 3);
       for (let i = 0; i < 3; i++) expectClose(hv[i * 3 + k], col[i], 1e-7, 1e-8);
     }
+  });
+
+  it('falls back to a differenced D²f(v, ·) for huge models that agrees with the exact one to 1e-9', () => {
+    const v = Float64Array.of(0.2, -0.5, 0.9);
+    const exact = new Float64Array(9);
+    const approx = new Float64Array(9);
+    model.hessianTimes(x, p, v, exact);
+    differencedHessianTimes(3, model.jacobian)(x, p, v, approx);
+    for (let i = 0; i < 9; i++) expectClose(approx[i], exact[i], 1e-9, 1e-9);
   });
 
   it('reuses a compiled model but takes each request’s parameter values', () => {
