@@ -9,6 +9,8 @@ export interface Tolerances {
   newtonResidual: number;
   /** Newton iterations when converging a start or locating a fold/cusp. */
   newtonMaxIterations: number;
+  /** Corrector (continuation, curve location): stop when ‖Δ‖∞ ≤ correctorStep·(1 + ‖y‖∞). */
+  correctorStep: number;
   /** Newton iterations of a continuation corrector before the step is cut. */
   correctorMaxIterations: number;
   /** Grow the continuation step after a corrector that needed at most this many iterations. */
@@ -34,6 +36,7 @@ export const TOLERANCES: Readonly<Tolerances> = Object.freeze({
   newtonStep: 1e-12,
   newtonResidual: 1e-11,
   newtonMaxIterations: 40,
+  correctorStep: 1e-10,
   correctorMaxIterations: 8,
   correctorFastIterations: 3,
   stepGrow: 1.5,

@@ -45,7 +45,8 @@ export function newtonSolve(system: SquareSystem, y0: ArrayLike<number>, tol: To
       jnorm = Math.max(jnorm, s);
     }
     const lu = luFactor(jac, m, true);
-    if (lu.singular) return { y, converged: false, iterations: it, residual: fnorm };
+    // A singular Jacobian at a point that already solves F = 0 (e.g. a start exactly at a fold).
+    if (lu.singular) return { y, converged: normInf(f) <= tol.newtonResidual * (1 + normInf(y)) * 1e-3, iterations: it, residual: fnorm };
     luSolve(lu, f, d);
     let lambda = 1;
     for (;;) {

@@ -206,3 +206,13 @@ describe('continuation: stop reasons', () => {
     expect(r.branch.points.length).toBeGreaterThan(1);
   });
 });
+
+describe('continuation: starting exactly at a fold', () => {
+  it('sets off along the state direction and finds the fold at its start', () => {
+    // ẋ = μ − x², start (x, μ) = (0, 0) is the fold itself (Strogatz §3.1).
+    const branch = follow({ variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 0 }] }, 'mu', { x: 0 }, -1, 1);
+    expect(branch.points.length).toBeGreaterThan(10);
+    for (const p of branch.points) expectClose(p.parameter, p.state.x ** 2, 1e-9, 1e-12);
+    expect(branch.points.every((p) => p.parameter >= 0)).toBe(true);
+  });
+});

@@ -74,7 +74,7 @@ export function curveTangent(system: CurveSystem, y: Float64Array, guess: Float6
 /**
  * Newton's method for G(z) = 0 together with one extra scalar equation rowᵀ·z = target
  * (Keller's pseudo-arclength condition when row is the tangent; a coordinate condition when
- * row is a unit vector). Converged when ‖Δz‖∞ ≤ newtonStep·(1 + ‖z‖∞). z is updated in place.
+ * row is a unit vector). Converged when ‖Δz‖∞ ≤ correctorStep·(1 + ‖z‖∞). z is updated in place.
  */
 export function correct(
   system: CurveSystem,
@@ -96,7 +96,7 @@ export function correct(
     luSolve(f, ws.rhs, ws.d);
     for (let i = 0; i < s; i++) z[i] -= ws.d[i];
     if (!allFinite(z, s)) return { converged: false, iterations: it };
-    if (normInf(ws.d, s) <= tolerances.newtonStep * 100 * (1 + normInf(z, s))) return { converged: true, iterations: it };
+    if (normInf(ws.d, s) <= tolerances.correctorStep * (1 + normInf(z, s))) return { converged: true, iterations: it };
   }
   return { converged: false, iterations: maxIterations };
 }
