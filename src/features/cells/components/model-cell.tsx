@@ -132,7 +132,7 @@ export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange:
       <EquationsPreview input={input} />
       {!readOnly && (
         <div className="mt-2 border-t border-rule pt-3">
-          <TextCell label="Model name" value={typed.name} onValue={(v) => set({ name: v })} error={err('name')} placeholder="Name, e.g. Stirred tank, first-order reaction" mono={false} />
+          <TextCell className="max-w-lg" label="Model name" value={typed.name} onValue={(v) => set({ name: v })} error={err('name')} placeholder="Name, e.g. Stirred tank, first-order reaction" mono={false} />
           {err('variables') && !err('variables[0]') && <p className="mt-1 text-xs font-medium text-unstable">{err('variables')}</p>}
 
           <SectionHead title="State variables and right-hand sides" addLabel="variable" onAdd={() => addRow('variables', { name: '', rhs: '' })} />

@@ -1,9 +1,14 @@
 import { VegaEmbed } from 'react-vega';
 import type { Result, VisualizationSpec } from 'vega-embed';
+import { expressionInterpreter } from 'vega-interpreter';
 
 export type PlotClick = (datum: Record<string, unknown>) => void;
 
-/** The vega renderer itself; loaded only through LazyPlot, so vega's code is fetched when a plot is on screen. */
+/**
+ * The vega renderer itself. Expressions run through vega's interpreter instead of generated
+ * code, because the app's content security policy forbids eval. Loaded only through LazyPlot, so vega's
+ * code is fetched when a plot is on screen.
+ */
 export default function VegaPlot({ spec, label, onClickDatum }: { spec: VisualizationSpec; label: string; onClickDatum?: PlotClick }) {
   const onEmbed = (result: Result) => {
     if (!onClickDatum) return;
@@ -19,7 +24,7 @@ export default function VegaPlot({ spec, label, onClickDatum }: { spec: Visualiz
       className="w-full"
       spec={spec}
       onEmbed={onEmbed}
-      options={{ actions: { export: true, source: false, compiled: false, editor: false }, renderer: 'svg', downloadFileName: label.replace(/[^\w-]+/g, '-').toLowerCase() }}
+      options={{ ast: true, expr: expressionInterpreter, actions: { export: true, source: false, compiled: false, editor: false }, renderer: 'svg', downloadFileName: label.replace(/[^\w-]+/g, '-').toLowerCase() }}
     />
   );
 }

@@ -31,7 +31,9 @@ export function EntryEditor({ initialContent, editable, onChange, cellView, crea
     editable,
     editorProps: {
       attributes: {
-        class: 'bf-prose prose-log mx-auto min-h-[16rem] px-6 py-6 focus:outline-none',
+        // Text keeps a readable measure; cells take the full width of the page.
+        class:
+          'bf-prose prose-log max-w-none! min-h-[16rem] px-6 py-6 focus:outline-none [&>*:not(.bf-cell-node)]:mx-auto [&>*:not(.bf-cell-node)]:max-w-[68ch]',
         'aria-label': label,
         role: 'textbox',
         'aria-multiline': 'true',
