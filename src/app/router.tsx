@@ -58,6 +58,6 @@ export function createAppRouter() {
 }
 
 export function AppRouter() {
-  const router = useMemo(createAppRouter, []);
+  const router = useMemo(() => createAppRouter(), []);
   return <RouterProvider router={router} />;
 }

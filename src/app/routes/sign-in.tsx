@@ -1,4 +1,4 @@
-import { Navigate, useNavigate, useSearchParams } from 'react-router';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router';
 import { paths, safeRedirect } from '@/config/paths.ts';
 import { PublicShell } from '@/components/ui/app-shell.tsx';
 import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
@@ -25,7 +25,7 @@ export default function SignInRoute() {
       )}
       <p className="mt-6 border-t border-rule pt-4 text-xs text-ink-muted">
         New here? Accounts are by invitation: ask your site administrator. Lost the invite? Ask them to send
-        another, or <a href={paths.requestReset.getHref()}>reset a password</a>.
+        another, or <Link to={paths.requestReset.getHref()}>reset a password</Link>.
       </p>
     </PublicShell>
   );
