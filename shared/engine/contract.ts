@@ -119,7 +119,9 @@ export const foldCurveTaskSchema = z.object({
   start: z.object({ parameters: valuesSchema, state: valuesSchema.default({}) }),
   bounds: z.record(z.string(), intervalSchema),
   maxPoints: z.number().int().min(2).max(ENGINE_LIMITS.pointsMax).default(ENGINE_DEFAULTS.maxPoints),
+  /** Step lengths in the joint (state, null vector, two parameters) space. */
   step: stepSchema.default({ ...ENGINE_DEFAULTS.step }),
+  /** Which way to set off, judged by the second parameter (parameters[1]). */
   direction: z.enum(DIRECTIONS).default(ENGINE_DEFAULTS.direction),
 });
 
