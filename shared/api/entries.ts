@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { cellOutputSchema, cellOutputsSchema } from '../cells/output.ts';
 import { documentSchema } from '../editor/document.ts';
+import { signatureSchema } from './reviews.ts';
 
 /**
  * Research-log entries, their revisions, the caller's working draft and cell runs.
@@ -155,6 +156,8 @@ export const revisionSchema = z.object({
   contentHash: z.string(),
   /** Set when this revision restores an older one. */
   restoredFromId: z.uuid().nullable(),
+  /** Electronic signatures on this revision (see shared/api/reviews.ts); empty when unsigned. */
+  signatures: z.array(signatureSchema).default([]),
 });
 export type Revision = z.infer<typeof revisionSchema>;
 
