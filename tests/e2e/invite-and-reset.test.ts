@@ -143,3 +143,26 @@ describe('resetting a forgotten password', () => {
     await page.getByRole('alert').filter({ hasText: 'expired or has already been used' }).waitFor();
   });
 });
+
+describe('deactivating an account', () => {
+  it('the administrator deactivates the newcomer after asking, and they can no longer sign in', async () => {
+    await signIn(page, baseUrl, 'admin');
+    await page.goto(`${baseUrl}/admin/users`);
+    const row = page.getByRole('row').filter({ hasText: newcomer.email });
+    await row.waitFor();
+    await row.getByRole('button', { name: `Deactivate ${newcomer.name}` }).click();
+    const dialog = page.getByRole('dialog', { name: `Deactivate ${newcomer.name}?` });
+    await dialog.waitFor();
+    // Escape backs out without changing anything
+    await page.keyboard.press('Escape');
+    await dialog.waitFor({ state: 'hidden' });
+    expect(await row.getByText('Active', { exact: true }).isVisible()).toBe(true);
+    await row.getByRole('button', { name: `Deactivate ${newcomer.name}` }).click();
+    await dialog.getByRole('button', { name: 'Deactivate' }).click();
+    await row.getByText('Deactivated').waitFor();
+    await signOut(page);
+
+    await signInWith(newcomer.email, newcomer.next);
+    await page.getByRole('alert').filter({ hasText: 'do not match an active account' }).waitFor();
+  });
+});
