@@ -7,21 +7,22 @@ import { cuspFoldCurve } from './plot-fixtures.ts';
 describe('bistableBands', () => {
   it('shades the cusp wedge |h| < 2(r/3)^{3/2} of x′ = h + r·x − x³ (Strogatz, §3.6)', () => {
     const { curve } = cuspFoldCurve(401);
-    const bands = bistableBands(curve, 'r', 'h', 30);
-    expect(bands.length).toBe(30);
+    const right = 3.2;
+    const bands = bistableBands(curve, 'r', 'h', [-0.2, right], 40);
+    expect(bands.length).toBeGreaterThan(30);
     for (const b of bands) {
-      const r = (b.x + b.x2) / 2;
-      const edge = 2 * (r / 3) ** 1.5;
-      // Polyline interpolation of the curve: within 1 % of the wedge's half-width.
-      expect(b.y).toBeCloseTo(-edge, 2);
-      expect(b.y2).toBeCloseTo(edge, 2);
+      const h = (b.y + b.y2) / 2;
+      // The wedge's edge at this h: r = 3(|h|/2)^{2/3}; the region reaches the plot's right edge.
+      expect(b.x).toBeCloseTo(3 * (Math.abs(h) / 2) ** (2 / 3), 2);
+      expect(b.x2).toBe(right);
     }
   });
 
-  it('shades nothing where the curve crosses a strip only once', () => {
-    const { curve } = cuspFoldCurve(101);
-    const half = { ...curve, points: curve.points.slice(50) };
-    expect(bistableBands(half, 'r', 'h', 20)).toEqual([]);
+  it('opens the region towards the side the normal form names', () => {
+    const { curve } = cuspFoldCurve(201);
+    const flipped = { ...curve, points: curve.points.map((q) => ({ ...q, normalForm: { a: -q.normalForm.a, b: q.normalForm.b } })) };
+    const bands = bistableBands(flipped, 'r', 'h', [-0.2, 3.2], 20);
+    expect(bands.every((b) => b.x === -0.2)).toBe(true);
   });
 });
 

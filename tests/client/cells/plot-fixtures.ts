@@ -62,7 +62,9 @@ export function mirroredSaddleNodeBranch(): ContinuationResult {
 /**
  * Fold curve of the cusp normal form x' = h + r·x − x³ (Strogatz §3.6, imperfect bifurcation):
  * f = 0 and f_x = 0 give r = 3x², h = −2x³, so the curve is h = ±2(r/3)^{3/2} with a cusp at
- * r = h = 0; three equilibria (two stable) for |h| < 2(r/3)^{3/2}.
+ * r = h = 0; three equilibria (two stable) for |h| < 2(r/3)^{3/2}. With v = w = 1 the normal
+ * form along the curve is a = f_r = x (first parameter r), b = f_xx = −6x, so −a/b = 1/6 > 0:
+ * the extra pair lies towards larger r.
  */
 export function cuspFoldCurve(n = 201, xMax = 1): FoldCurveResult {
   const points = [];
@@ -71,7 +73,7 @@ export function cuspFoldCurve(n = 201, xMax = 1): FoldCurveResult {
     points.push({
       parameters: { r: 3 * x * x, h: -2 * x ** 3 },
       state: { x },
-      normalForm: { a: 1, b: -6 * x },
+      normalForm: { a: x, b: -6 * x },
       residual: 0,
     });
   }

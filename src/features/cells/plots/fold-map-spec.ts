@@ -10,37 +10,52 @@ export interface RegionBand {
 }
 
 /**
- * The region of the (p₁, p₂) plane where the model has two more equilibria than outside.
+ * The region of the (p₁, p₂) plane where the model has two more equilibria than just outside
+ * the fold curve: in the cusp picture, the wedge where two stable states coexist (bistability).
  *
- * Reasoning: crossing a fold curve transversally creates or destroys one pair of equilibria.
- * Walking up a vertical line p₁ = const from far below (taken as outside, with the fewest
- * equilibria, as in the cusp picture), the count goes up by two at the first crossing, down at
- * the second, and so on: the region lies between crossings 1–2, 3–4, …. Near a cusp that region
- * is the wedge where two stable equilibria coexist with a saddle between them (bistability).
- * The plane is cut into `columns` vertical strips; each strip's crossings come from the fold
- * curve's polyline. Strips where the curve does not reach are blank.
+ * Reasoning: crossing the fold curve in the direction of p₁ creates or destroys one pair of
+ * equilibria, and the fold's normal form says on which side the pair lives: with
+ * a = w·∂f/∂p₁ and b = w·D²f(v, v) (the engine reports them per curve point, with respect to
+ * the first parameter), the pair exists where −a(p₁ − p₁*)/b > 0, i.e. towards larger p₁ when
+ * −a/b > 0. The plane is cut into horizontal strips (p₂ fixed); along each strip the curve's
+ * crossings are found on its polyline and each crossing opens the region towards its pair's
+ * side, up to the next crossing or the edge of the plot. Crossings whose normal form is
+ * degenerate (b = 0, at the cusp itself) are skipped.
  */
-export function bistableBands(curve: FoldCurveResult['curve'], p1: string, p2: string, columns = 120): RegionBand[] {
-  const pts = curve.points.map((q) => ({ x: q.parameters[p1], y: q.parameters[p2] })).filter((q) => Number.isFinite(q.x) && Number.isFinite(q.y));
+export function bistableBands(curve: FoldCurveResult['curve'], p1: string, p2: string, xDomain: [number, number], rows = 120): RegionBand[] {
+  const pts = curve.points
+    .map((q) => ({ x: q.parameters[p1], y: q.parameters[p2], side: q.normalForm.b === 0 ? 0 : Math.sign(-q.normalForm.a / q.normalForm.b) }))
+    .filter((q) => Number.isFinite(q.x) && Number.isFinite(q.y));
   if (pts.length < 2) return [];
-  const xs = pts.map((q) => q.x);
-  const lo = Math.min(...xs);
-  const hi = Math.max(...xs);
+  const ys = pts.map((q) => q.y);
+  const lo = Math.min(...ys);
+  const hi = Math.max(...ys);
   if (!(hi > lo)) return [];
-  const w = (hi - lo) / columns;
+  const h = (hi - lo) / rows;
   const bands: RegionBand[] = [];
-  for (let c = 0; c < columns; c++) {
-    const x = lo + (c + 0.5) * w;
-    const ys: number[] = [];
+  for (let r = 0; r < rows; r++) {
+    const y = lo + (r + 0.5) * h;
+    const crossings: { x: number; side: number }[] = [];
     for (let i = 0; i + 1 < pts.length; i++) {
       const a = pts[i];
       const b = pts[i + 1];
-      if ((a.x - x) * (b.x - x) > 0 || a.x === b.x) continue;
-      if (b.x === x && i + 2 < pts.length) continue;
-      ys.push(a.y + ((x - a.x) / (b.x - a.x)) * (b.y - a.y));
+      if ((a.y - y) * (b.y - y) > 0 || a.y === b.y) continue;
+      if (b.y === y && i + 2 < pts.length) continue;
+      const t = (y - a.y) / (b.y - a.y);
+      const side = t < 0.5 ? a.side || b.side : b.side || a.side;
+      if (side !== 0) crossings.push({ x: a.x + t * (b.x - a.x), side });
     }
-    ys.sort((m, n) => m - n);
-    for (let k = 0; k + 1 < ys.length; k += 2) bands.push({ x: x - w / 2, x2: x + w / 2, y: ys[k], y2: ys[k + 1] });
+    crossings.sort((m, n) => m.x - n.x);
+    const push = (x: number, x2: number) => {
+      const from = Math.max(x, xDomain[0]);
+      const to = Math.min(x2, xDomain[1]);
+      if (to > from) bands.push({ x: from, x2: to, y: y - h / 2, y2: y + h / 2 });
+    };
+    crossings.forEach((c, k) => {
+      if (c.side > 0) push(c.x, k + 1 < crossings.length ? crossings[k + 1].x : xDomain[1]);
+      else if (k === 0) push(xDomain[0], c.x);
+      else if (crossings[k - 1].side < 0) push(crossings[k - 1].x, c.x);
+    });
   }
   return bands;
 }
@@ -66,7 +81,6 @@ export function foldMapSpec(result: FoldCurveResult, parameters: readonly [strin
       .map(([k, v]) => `${k} = ${formatNumber(v)}`)
       .join(', '),
   }));
-  const bands = bistableBands(curve, p1, p2);
   const cusps = curve.events.map((e, i) => ({
     index: i,
     x: e.parameters[p1],
@@ -75,6 +89,7 @@ export function foldMapSpec(result: FoldCurveResult, parameters: readonly [strin
   }));
   const xDomain = paddedRange(rows.map((r) => r.x));
   const yDomain = paddedRange(rows.map((r) => r.y));
+  const bands = bistableBands(curve, p1, p2, xDomain);
   const x = quantitativeChannel('x', p1, xDomain);
   const y = quantitativeChannel('y', p2, yDomain);
   const layers: Record<string, unknown>[] = [
