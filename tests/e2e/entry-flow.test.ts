@@ -100,7 +100,7 @@ describe('an entry with cells', () => {
     await model.getByLabel('Variable 1 name').fill('x');
     await model.getByLabel('Right-hand side of x').fill('-x + Da*(1 - x/B)*exp(x/(1 + x/g))');
     for (const [name, value] of [
-      ['Da', '0.1'],
+      ['Da', '0.3'],
       ['B', '8'],
       ['g', '20'],
     ]) {
@@ -122,7 +122,7 @@ describe('an entry with cells', () => {
     await addCell('Branch of equilibria');
     const branch = cell('branch');
     await branch.getByLabel('from', { exact: true }).fill('0.01');
-    await branch.getByLabel('to', { exact: true }).fill('0.3');
+    await branch.getByLabel('to', { exact: true }).fill('0.8');
     await branch.getByLabel('At most points').fill('2000');
     await branch.getByRole('button', { name: 'Run', exact: true }).click();
     await waitForStatus(branch, 'up');
@@ -156,6 +156,7 @@ describe('an entry with cells', () => {
     await addCell('Trajectory');
     const tr = cell('trajectory');
     await tr.getByLabel('to time').fill('20');
+    await tr.getByLabel('x', { exact: true }).fill('4');
     await tr.getByRole('button', { name: 'Run', exact: true }).click();
     await waitForStatus(tr, 'up');
     await tr.locator('svg').first().waitFor();
@@ -165,7 +166,7 @@ describe('an entry with cells', () => {
     const fm = cell('fold-map');
     await fm.getByLabel('Start from a fold found by a branch cell').selectOption({ index: 1 });
     await fm.getByLabel('Da lower end').fill('0');
-    await fm.getByLabel('Da upper end').fill('0.4');
+    await fm.getByLabel('Da upper end').fill('0.8');
     await fm.getByLabel('B lower end').fill('3');
     await fm.getByLabel('B upper end').fill('12');
     await fm.getByLabel('At most points').fill('3000');

@@ -6,7 +6,7 @@ import { NumberInput } from './number-input.tsx';
 /** A compact labelled control with its message underneath. */
 export function SmallField({ label, error, children, className, hint }: { label: string; error?: string; children: ReactNode; className?: string; hint?: string }) {
   return (
-    <label className={cn('block', className)}>
+    <label className={cn('block min-w-0', className)}>
       <span className="mb-0.5 block text-xs font-medium text-ink-muted">{label}</span>
       {children}
       {error ? <span className="mt-0.5 block text-xs font-medium text-unstable">{error}</span> : hint ? <span className="mt-0.5 block text-xs text-ink-muted">{hint}</span> : null}

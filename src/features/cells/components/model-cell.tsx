@@ -54,7 +54,7 @@ function EquationsPreview({ input }: { input: Row }) {
 
 function TextCell({ value, onValue, error, placeholder, label, mono = true, className }: { value: unknown; onValue: (v: string) => void; error?: string; placeholder?: string; label: string; mono?: boolean; className?: string }) {
   return (
-    <div className={className}>
+    <div className={cn('min-w-0', className)}>
       <input
         aria-label={label}
         aria-invalid={error ? true : undefined}
@@ -63,7 +63,7 @@ function TextCell({ value, onValue, error, placeholder, label, mono = true, clas
         spellCheck={false}
         autoComplete="off"
         onChange={(e) => onValue(e.target.value)}
-        className={cn(controlClass, 'h-8 px-2 text-sm', mono && 'font-mono')}
+        className={cn(controlClass, 'h-8 min-w-0 px-2 text-sm', mono && 'font-mono')}
       />
       {error && <p className="mt-0.5 text-xs font-medium text-unstable">{error}</p>}
     </div>
@@ -154,7 +154,7 @@ export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange:
               <div key={i} className="grid grid-cols-[7rem_auto_8rem_6rem_1fr_2rem] items-start gap-2">
                 <TextCell label={`Parameter ${i + 1} name`} value={p.name} onValue={(s) => setRow('parameters', i, { name: s })} error={err(`parameters[${i}].name`)} placeholder="mu" />
                 <span className="pt-1.5 font-serif text-sm text-ink-muted">=</span>
-                <div>
+                <div className="min-w-0">
                   <NumberInput aria-label={`Value of ${str(p.name) || `parameter ${i + 1}`}`} aria-invalid={err(`parameters[${i}].value`) ? true : undefined} value={p.value} onValue={(n) => setRow('parameters', i, { value: n })} />
                   {err(`parameters[${i}].value`) && <p className="mt-0.5 text-xs font-medium text-unstable">{err(`parameters[${i}].value`)}</p>}
                 </div>

@@ -164,11 +164,20 @@ export interface BranchDiagramOptions {
 
 const STABILITY_LABEL: Record<Stability, string> = { stable: 'stable', unstable: 'unstable', neutral: 'neutral' };
 
+/** The field's convention: stable solid, unstable dashed; neutral (rare, at the boundary) dotted grey. */
+const STABILITY_STYLE: Record<Stability, { color: (p: PlotPalette) => string; dash: number[] }> = {
+  stable: { color: (p) => p.stable, dash: [1, 0] },
+  unstable: { color: (p) => p.unstable, dash: [6, 4] },
+  neutral: { color: (p) => p.muted, dash: [2, 3] },
+};
+
 /** Vega-lite spec of a branch diagram: parameter horizontally, the chosen variable (or norm) vertically. */
 export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOptions): TopLevelSpec {
   const { points, events } = result.branch;
   const p = o.palette;
   const segments = splitByStability(points, o.yVariable);
+  // Only the kinds present appear in the legend.
+  const kinds = (['stable', 'unstable', 'neutral'] as const).filter((k) => segments.some((seg) => seg.stability === k));
   const lineRows = segments.flatMap((s) =>
     s.points.map((pt, order) => ({ segment: s.index, stability: STABILITY_LABEL[s.stability], mu: pt.parameter, y: pt.y, order })),
   );
@@ -247,12 +256,12 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
         field: 'stability',
         type: 'nominal',
         title: null,
-        scale: { domain: ['stable', 'unstable', 'neutral'], range: [p.stable, p.unstable, p.muted] },
+        scale: { domain: kinds, range: kinds.map((k) => STABILITY_STYLE[k].color(p)) },
       },
       strokeDash: {
         field: 'stability',
         type: 'nominal',
-        scale: { domain: ['stable', 'unstable', 'neutral'], range: [[1, 0], [6, 4], [2, 3]] },
+        scale: { domain: kinds, range: kinds.map((k) => STABILITY_STYLE[k].dash) },
         legend: null,
       },
     },
