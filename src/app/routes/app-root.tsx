@@ -1,3 +1,4 @@
+import { useEffect, useRef } from 'react';
 import { Navigate, Outlet, useLocation, useNavigate } from 'react-router';
 import { paths } from '@/config/paths.ts';
 import { AppShell } from '@/components/ui/app-shell.tsx';
@@ -8,6 +9,18 @@ import { useMe } from '@/features/auth/api/get-me.ts';
 import { useSignOut } from '@/features/auth/api/sign-out.ts';
 import { useOutboxAvailable } from '@/features/outbox/api/get-outbox.ts';
 
+/** After moving to another page, keyboard and screen-reader users start at its content. */
+function useFocusMainOnNavigation(pathname: string) {
+  const first = useRef(true);
+  useEffect(() => {
+    if (first.current) {
+      first.current = false;
+      return;
+    }
+    document.getElementById('main')?.focus({ preventScroll: false });
+  }, [pathname]);
+}
+
 /** The signed-in part of the app: sends visitors to sign-in (and back here afterwards). */
 export default function AppRoot() {
   const me = useMe();
@@ -15,6 +28,7 @@ export default function AppRoot() {
   const navigate = useNavigate();
   const signOut = useSignOut();
   const outbox = useOutboxAvailable();
+  useFocusMainOnNavigation(location.pathname);
 
   if (me.isPending)
     return (

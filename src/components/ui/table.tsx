@@ -57,7 +57,11 @@ export function DataTable<T>({
                     key={c.key}
                     scope="col"
                     aria-sort={c.sortValue ? (active ? sort!.direction : 'none') : undefined}
-                    className={cn('px-4 py-2.5 font-semibold', c.numeric && 'text-right', c.className)}
+                    className={cn(
+                      'px-4 py-2.5 font-semibold whitespace-nowrap',
+                      c.numeric && 'text-right',
+                      c.className,
+                    )}
                   >
                     {c.sortValue ? (
                       <button

@@ -11,13 +11,21 @@ export default function AdminInvitesRoute() {
       <PageHeader eyebrow="Administration" title="Invites">
         Invites sent by e-mail, and whether they were accepted.
       </PageHeader>
-      <div className="grid items-start gap-8 lg:grid-cols-[minmax(0,1fr)_22rem]">
-        <InvitesTable />
-        <section aria-labelledby="invite-heading" className="rounded-lg border border-rule bg-surface p-6">
+      <div className="space-y-10">
+        <section
+          aria-labelledby="invite-heading"
+          className="max-w-xl rounded-lg border border-rule bg-surface p-6"
+        >
           <h2 id="invite-heading" className="mb-4 text-base font-semibold">
             Invite someone
           </h2>
           <InviteForm />
+        </section>
+        <section aria-labelledby="sent-heading">
+          <h2 id="sent-heading" className="mb-3 font-serif text-xl font-bold">
+            Sent invites
+          </h2>
+          <InvitesTable />
         </section>
       </div>
     </RequireAdmin>
