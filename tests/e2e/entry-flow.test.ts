@@ -2,7 +2,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'v
 import type { Locator, Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS } from '../../seeds/demo-people.ts';
 import { launchBrowser } from '../support/browser.ts';
-import { SCREENSHOT_DIR, signIn } from './helpers.ts';
+import { SCREENSHOT_DIR, seriousAxeViolations, signIn } from './helpers.ts';
 
 /**
  * The researcher's path through one entry: text with maths, a model cell and analysis cells
@@ -130,7 +130,7 @@ describe('an entry with cells', () => {
     const events = branch.locator('table tbody tr');
     expect(await events.count()).toBe(2);
     await events.first().click();
-    expect(await events.first().getAttribute('aria-selected')).toBe('true');
+    expect(await events.first().getAttribute('data-selected')).toBe('true');
     await branch.screenshot({ path: `${SCREENSHOT_DIR}cell-branch.png` });
   });
 
@@ -196,5 +196,9 @@ describe('an entry with cells', () => {
     expect(await statusOf(cell('branch'))).toBe('up');
     await page.getByRole('button', { name: /^History/ }).click();
     await page.getByRole('navigation', { name: 'Revision history' }).getByText('#2').waitFor();
+  });
+
+  it('has no serious accessibility problems with every cell kind and the history on the page', async () => {
+    expect(await seriousAxeViolations(page)).toEqual([]);
   });
 });

@@ -139,7 +139,7 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
               {events.map((e, i) => (
                 <tr
                   key={i}
-                  aria-selected={selected === i}
+                  data-selected={selected === i ? 'true' : undefined}
                   className={cn('cursor-pointer border-b border-rule last:border-0 hover:bg-sunken', selected === i && 'bg-accent-soft')}
                   onClick={() => select(i)}
                 >
