@@ -104,6 +104,15 @@ export const continuationTaskSchema = z.object({
   maxPoints: z.number().int().min(2).max(ENGINE_LIMITS.pointsMax).default(ENGINE_DEFAULTS.maxPoints),
   step: stepSchema.default({ ...ENGINE_DEFAULTS.step }),
   direction: z.enum(DIRECTIONS).default(ENGINE_DEFAULTS.direction),
+  /**
+   * Start on the other branch through a branch point: the index of a "branch-point" event in the
+   * events of the same request without `switchAt`, or a point { parameter, state } near the
+   * branch point (the branch point of that branch nearest to it is taken). The result is the
+   * other branch, followed both ways from the branch point.
+   */
+  switchAt: z
+    .union([z.number().int().min(0), z.object({ parameter: finite, state: valuesSchema.default({}) })])
+    .optional(),
 });
 
 /**
@@ -125,6 +134,14 @@ export const foldCurveTaskSchema = z.object({
   direction: z.enum(DIRECTIONS).default(ENGINE_DEFAULTS.direction),
 });
 
+/**
+ * Integration methods: "explicit" Dormand–Prince 5(4); "implicit" a linearly implicit Rosenbrock
+ * method with the exact Jacobian (for stiff models); "auto" starts explicit and switches to the
+ * implicit method when stiffness is detected.
+ */
+export const SIMULATE_METHODS = ['explicit', 'implicit', 'auto'] as const;
+export type SimulateMethod = (typeof SIMULATE_METHODS)[number];
+
 /** Integrate x' = f(x, p) from t = time.start (default 0) to time.end, sampled at `samples` equally spaced times. */
 export const simulateTaskSchema = z.object({
   kind: z.literal('simulate'),
@@ -142,6 +159,7 @@ export const simulateTaskSchema = z.object({
       absolute: z.number().min(1e-16).max(1).default(ENGINE_DEFAULTS.tolerance.absolute),
     })
     .default({ ...ENGINE_DEFAULTS.tolerance }),
+  method: z.enum(SIMULATE_METHODS).default(ENGINE_DEFAULTS.method),
 });
 
 export const taskSchema = z.discriminatedUnion('kind', [
@@ -198,7 +216,19 @@ export const pointSchema = z.object({
 });
 export type Point = z.infer<typeof pointSchema>;
 
-export const branchPointSchema = pointSchema.extend({ parameter: z.number() });
+/**
+ * How far the parameter may move from a branch point, staying on this branch, before the nearest
+ * fold that way: `increasing` (fold parameter − parameter, > 0) and `decreasing` (parameter −
+ * fold parameter, > 0); null when no fold was found that way on the computed branch.
+ */
+export const tippingMarginSchema = z.object({ increasing: z.number().nullable(), decreasing: z.number().nullable() });
+export type TippingMargin = z.infer<typeof tippingMarginSchema>;
+
+export const branchPointSchema = pointSchema.extend({
+  parameter: z.number(),
+  /** Distances to the nearest folds (continuation results from engine 1.1 on). */
+  tippingMargin: tippingMarginSchema.optional(),
+});
 export type BranchPoint = z.infer<typeof branchPointSchema>;
 
 export const EQUILIBRIA_SIDES = ['above', 'below'] as const;
@@ -229,10 +259,63 @@ export const foldEventSchema = z.object({
   normalForm: foldNormalFormSchema,
   /** ‖(f, Jv, |v|−1)‖₂ of the extended system at the located fold (diagnostics). */
   residual: z.number(),
+  /**
+   * dμ* / dp for every other parameter p: how the fold's parameter value moves when p changes,
+   * −(w·∂f/∂p)/(w·∂f/∂μ) (engine 1.1 on).
+   */
+  sensitivities: valuesSchema.optional(),
 });
 export type FoldEvent = z.infer<typeof foldEventSchema>;
-/** Events along a branch (later work adds "hopf" and "branch-point"). */
-export const branchEventSchema = z.discriminatedUnion('kind', [foldEventSchema]);
+
+/** A branch direction: unit vector in (state, parameter). */
+export const branchDirectionSchema = z.object({ state: valuesSchema, parameter: z.number() });
+export const BRANCH_POINT_TYPES = ['transcritical', 'pitchfork', 'simple'] as const;
+
+/**
+ * A simple branch point: two branches of equilibria cross. Detected where the determinant of
+ * [J f_μ; tᵀ 0] changes sign while the tangent's parameter component does not. `tangents` are
+ * the two branch directions (the followed branch's first). `type`: "transcritical" when the
+ * parameter moves to opposite sides along both branches, "pitchfork" when along one branch it
+ * moves to the same side on both ends (a symmetric pair of branches), otherwise "simple".
+ */
+export const branchPointEventSchema = z.object({
+  kind: z.literal('branch-point'),
+  parameter: z.number(),
+  state: valuesSchema,
+  after: z.number().int(),
+  tangents: z.array(branchDirectionSchema),
+  type: z.enum(BRANCH_POINT_TYPES),
+  eigenvalues: z.array(eigenvalueSchema),
+  /** ‖f‖₂ at the located point (diagnostics). */
+  residual: z.number(),
+});
+export type BranchPointEvent = z.infer<typeof branchPointEventSchema>;
+
+export const CRITICALITIES = ['supercritical', 'subcritical', 'degenerate'] as const;
+
+/**
+ * A Hopf point: a complex pair λ = ±iω crosses the imaginary axis (a real pair ±κ, the "neutral
+ * saddle", is not reported). `firstLyapunovCoefficient` l1 by Kuznetsov's formula (Elements of
+ * Applied Bifurcation Theory, 3rd ed., §3.5, eq. 3.20, and §10.2) with Aq = iωq, Aᵀp = −iωp,
+ * ⟨q, q⟩ = 1, ⟨p, q⟩ = 1 (⟨u, v⟩ = Σ ū_i v_i); l1 < 0 supercritical (a stable cycle appears),
+ * l1 > 0 subcritical, |l1| below tolerance degenerate.
+ */
+export const hopfEventSchema = z.object({
+  kind: z.literal('hopf'),
+  parameter: z.number(),
+  state: valuesSchema,
+  after: z.number().int(),
+  frequency: z.number(),
+  firstLyapunovCoefficient: z.number(),
+  criticality: z.enum(CRITICALITIES),
+  eigenvalues: z.array(eigenvalueSchema),
+  /** ‖f‖₂ at the located point (diagnostics). */
+  residual: z.number(),
+});
+export type HopfEvent = z.infer<typeof hopfEventSchema>;
+
+/** Events along a branch. */
+export const branchEventSchema = z.discriminatedUnion('kind', [foldEventSchema, branchPointEventSchema, hopfEventSchema]);
 export type BranchEvent = z.infer<typeof branchEventSchema>;
 
 /**
@@ -306,8 +389,10 @@ export const SIMULATE_STOP_REASONS = ['end', 'step-too-small', 'not-finite', 'ti
 export const simulateResultSchema = z.object({
   trajectory: z.object({ t: z.array(z.number()), state: z.record(z.string(), z.array(z.number())) }),
   stopReason: z.enum(SIMULATE_STOP_REASONS),
-  /** Accepted and rejected integrator steps (diagnostics). */
-  steps: z.object({ accepted: z.number().int(), rejected: z.number().int() }),
+  /** Accepted and rejected integrator steps (diagnostics); `implicit`: of those, taken by the implicit method. */
+  steps: z.object({ accepted: z.number().int(), rejected: z.number().int(), implicit: z.number().int().optional() }),
+  /** The method that ran; with "auto", the time it switched to the implicit method, if it did. */
+  method: z.object({ used: z.enum(SIMULATE_METHODS), switchedAt: z.number().optional() }).optional(),
   engine: engineInfoSchema,
 });
 export type SimulateResult = z.infer<typeof simulateResultSchema>;

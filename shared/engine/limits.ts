@@ -38,4 +38,6 @@ export const ENGINE_DEFAULTS = {
   samples: 201,
   /** Error tolerances of the adaptive Runge-Kutta integrator. */
   tolerance: { relative: 1e-8, absolute: 1e-10 },
+  /** Integration method of `simulate` ("explicit" keeps earlier results unchanged). */
+  method: 'explicit',
 } as const;

@@ -1,8 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { analyze, type ContinuationResult, type ModelInput } from '@server/engine/index.ts';
+import { analyze, type BranchEvent, type ContinuationResult, type FoldEvent, type ModelInput } from '@server/engine/index.ts';
 import { continuationResultSchema } from '@shared/engine/contract.ts';
 import { expectClose } from '../support/tolerances.ts';
 import { bratuModel } from './models.ts';
+
+/** The event as a fold (fails the test otherwise). */
+const asFold = (e: BranchEvent | undefined): FoldEvent => {
+  expect(e?.kind).toBe('fold');
+  return e as FoldEvent;
+};
 
 const follow = (model: ModelInput, parameter: string, start: Record<string, number>, min: number, max: number, extra: Record<string, unknown> = {}): ContinuationResult['branch'] => {
   const r = analyze({ model, task: { kind: 'continuation', parameter, start, bounds: { min, max }, ...extra } });
@@ -33,7 +39,7 @@ describe('continuation: folds of one-variable models', () => {
   ])('locates the fold: $source', ({ model, parameter, start, bounds, fold }) => {
     const branch = follow(model, parameter, start, bounds[0], bounds[1]);
     expect(branch.events).toHaveLength(1);
-    const e = branch.events[0];
+    const e = asFold(branch.events[0]);
     expectClose(e.parameter, fold.parameter, 1e-8, 1e-12);
     expectClose(e.state.x, fold.x, 0, 1e-7);
     expect(e.residual).toBeLessThan(1e-10);
@@ -86,7 +92,7 @@ describe('continuation: hysteresis with two folds', () => {
 
   it('puts the equilibria on the correct side of each fold', () => {
     // Near h = +h_c (x = −1/√3) equilibria exist for h < h_c; near −h_c for h > −h_c.
-    expect(branch.events.map((e) => e.normalForm.equilibriaSide)).toEqual(['below', 'above']);
+    expect(branch.events.map((e) => asFold(e).normalForm.equilibriaSide)).toEqual(['below', 'above']);
   });
 });
 
@@ -104,7 +110,7 @@ describe('continuation: a three-variable fold needing the full projection (w ≠
 
   it('locates the fold and its normal form', () => {
     expect(branch.events).toHaveLength(1);
-    const e = branch.events[0];
+    const e = asFold(branch.events[0]);
     expectClose(e.parameter, -1 / 16, 1e-8);
     expectClose(e.state.x, 0.25, 1e-8);
     expectClose(e.state.z, 0.125, 1e-8);
@@ -130,7 +136,7 @@ describe('continuation: a three-variable fold needing the full projection (w ≠
   });
 
   it('matches the local parabola x ≈ x* ± v·sqrt(−2a(μ−μ*)/b) near the fold', () => {
-    const { a, b, nullVector } = branch.events[0].normalForm;
+    const { a, b, nullVector } = asFold(branch.events[0]).normalForm;
     const near = branch.points.filter((p) => Math.abs(p.parameter + 1 / 16) < 2e-3 && p.parameter > -1 / 16);
     expect(near.length).toBeGreaterThan(0);
     for (const p of near) {

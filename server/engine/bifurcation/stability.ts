@@ -22,9 +22,14 @@ export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances):
   const e = isSymmetric(jacobian, n) ? symmetric(jacobian, n, tol) : eigenvalues(jacobian, n, tol.eigenMaxIterations);
   const list: Eigenvalue[] = [];
   let largest = 0;
+  let missing = false;
   for (let i = 0; i < n; i++) {
-    // A QR iteration that did not converge leaves NaN for the eigenvalues it did not reach: left out.
-    if (Number.isNaN(e.re[i]) || Number.isNaN(e.im[i])) continue;
+    // A QR iteration that did not converge leaves NaN for the eigenvalues it did not reach, and a
+    // Jacobian with an infinite entry (e.g. sqrt at 0) gives infinite ones: both left out.
+    if (!Number.isFinite(e.re[i]) || !Number.isFinite(e.im[i])) {
+      missing = true;
+      continue;
+    }
     // Exact zeros print as 0, not -0.
     list.push({ re: e.re[i] + 0, im: e.im[i] + 0 });
     largest = Math.max(largest, Math.hypot(e.re[i], e.im[i]));
@@ -37,7 +42,7 @@ export function stabilityOf(jacobian: Float64Array, n: number, tol: Tolerances):
     if (l.re > threshold) unstable++;
     else if (!(l.re < -threshold)) neutral++;
   }
-  const stability: Stability = unstable > 0 ? 'unstable' : neutral > 0 || !e.converged ? 'neutral' : 'stable';
+  const stability: Stability = unstable > 0 ? 'unstable' : neutral > 0 || !e.converged || missing ? 'neutral' : 'stable';
   return { stability, eigenvalues: list, unstableDimension: unstable };
 }
 

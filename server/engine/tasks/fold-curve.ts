@@ -5,31 +5,11 @@ import { locateFold } from '../bifurcation/fold.ts';
 import { FoldSystem } from '../bifurcation/fold-system.ts';
 import { foldCoefficients, foldNormalForm } from '../bifurcation/normal-form.ts';
 import { followCurve, type CurvePoint, type FollowResult } from '../continuation/pseudo-arclength.ts';
-import { luFactor, luSolve } from '../linalg/lu.ts';
-import { norm2, normInf } from '../linalg/vector.ts';
+import { nullVectorEstimate } from '../linalg/null-vector.ts';
 import type { CompiledModel } from '../model/compile.ts';
 import { convergeStart, followBothWays } from './continuation.ts';
 import { pastDeadline, type TaskContext } from './context.ts';
 import { named, parameterIndex, vectorFrom } from './present.ts';
-
-/**
- * Approximate null vector of a (nearly) singular matrix by inverse iteration with a tiny shift
- * (Golub & Van Loan, Matrix Computations, §7.6.1).
- */
-export function nullVectorEstimate(jac: Float64Array, n: number): Float64Array {
-  const shifted = jac.slice();
-  const size = Math.max(normInf(jac), 1e-300);
-  for (let i = 0; i < n; i++) shifted[i * n + i] += 1e-10 * size;
-  const lu = luFactor(shifted, n, true);
-  let v = Float64Array.from({ length: n }, (_, i) => 1 + i / (n + 1));
-  for (let it = 0; it < 4; it++) {
-    const z = luSolve(lu, v);
-    const len = norm2(z);
-    if (!(len > 0) || !Number.isFinite(len)) break;
-    v = z.map((c) => c / len);
-  }
-  return v;
-}
 
 /**
  * A fold followed in two parameters (μ, κ) = task.parameters on the standard extended system
