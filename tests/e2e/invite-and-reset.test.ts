@@ -14,6 +14,8 @@ const newcomer = {
   email: `ada.newcombe.${suffix}@vellharbour.example`,
   password: 'a-long-first-password',
   next: 'a-longer-second-password',
+  third: 'the-third-password-of-ada',
+  renamed: 'Ada M. Newcombe',
 };
 
 beforeAll(async () => {
@@ -144,25 +146,57 @@ describe('resetting a forgotten password', () => {
   });
 });
 
+describe('the account page', () => {
+  it('changes the display name and the password, with the server message beside a wrong current password', async () => {
+    await signInWith(newcomer.email, newcomer.next);
+    await page.getByRole('heading', { name: 'Your notebooks' }).waitFor();
+    await page.getByRole('button', { name: /account menu/ }).click();
+    await page.getByRole('link', { name: 'Account' }).click();
+    const nameForm = page.getByRole('form', { name: 'Your name' });
+    await nameForm.getByLabel('Name').fill('');
+    await nameForm.getByRole('button', { name: 'Save name' }).click();
+    await nameForm.getByText('Enter a name').waitFor();
+    await nameForm.getByLabel('Name').fill(newcomer.renamed);
+    await nameForm.getByRole('button', { name: 'Save name' }).click();
+    await page.getByRole('status').getByText('Name saved').waitFor();
+    await page.getByRole('button', { name: new RegExp(`^${newcomer.renamed}`) }).waitFor();
+
+    const pw = page.getByRole('form', { name: 'Change password' });
+    await pw.getByLabel('Current password').fill('not-my-password');
+    await pw.getByLabel('New password', { exact: true }).fill(newcomer.third);
+    await pw.getByLabel('Repeat the new password').fill(newcomer.third);
+    await pw.getByRole('button', { name: 'Change password' }).click();
+    await pw.getByText('This is not your current password').waitFor();
+    await pw.getByLabel('Current password').fill(newcomer.next);
+    await pw.getByRole('button', { name: 'Change password' }).click();
+    await page.getByRole('status').getByText('Password changed').waitFor();
+    await saveScreenshot(page, 'account');
+    await signOut(page);
+    await signInWith(newcomer.email, newcomer.third);
+    await page.getByRole('heading', { name: 'Your notebooks' }).waitFor();
+  });
+});
+
 describe('deactivating an account', () => {
   it('the administrator deactivates the newcomer after asking, and they can no longer sign in', async () => {
     await signIn(page, baseUrl, 'admin');
     await page.goto(`${baseUrl}/admin/users`);
     const row = page.getByRole('row').filter({ hasText: newcomer.email });
     await row.waitFor();
-    await row.getByRole('button', { name: `Deactivate ${newcomer.name}` }).click();
-    const dialog = page.getByRole('dialog', { name: `Deactivate ${newcomer.name}?` });
+    await row.getByRole('button', { name: `Deactivate ${newcomer.renamed}` }).click();
+    const dialog = page.getByRole('dialog', { name: `Deactivate ${newcomer.renamed}?` });
     await dialog.waitFor();
     // Escape backs out without changing anything
     await page.keyboard.press('Escape');
     await dialog.waitFor({ state: 'hidden' });
     expect(await row.getByText('Active', { exact: true }).isVisible()).toBe(true);
-    await row.getByRole('button', { name: `Deactivate ${newcomer.name}` }).click();
+    await row.getByRole('button', { name: `Deactivate ${newcomer.renamed}` }).click();
     await dialog.getByRole('button', { name: 'Deactivate' }).click();
     await row.getByText('Deactivated').waitFor();
     await signOut(page);
 
-    await signInWith(newcomer.email, newcomer.next);
+    // the password that worked a moment ago no longer lets them in
+    await signInWith(newcomer.email, newcomer.third);
     await page.getByRole('alert').filter({ hasText: 'do not match an active account' }).waitFor();
   });
 });

@@ -229,6 +229,37 @@ describe('accessibility and look', () => {
     });
   });
 
+  it('can be used from the keyboard, with a visible focus ring on every stop', async () => {
+    await context.clearCookies();
+    await page.goto(`${baseUrl}/sign-in`);
+    await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+    await page.locator('body').focus();
+    const stops: string[] = [];
+    for (let i = 0; i < 8; i++) {
+      await page.keyboard.press('Tab');
+      const stop = await page.evaluate(() => {
+        const el = document.activeElement as HTMLElement | null;
+        if (!el || el === document.body) return null;
+        const style = getComputedStyle(el);
+        return {
+          name: el.getAttribute('aria-label') ?? el.textContent?.trim() ?? el.tagName,
+          ring: style.outlineStyle !== 'none' && parseFloat(style.outlineWidth) >= 2,
+        };
+      });
+      if (!stop) continue;
+      stops.push(stop.name);
+      expect(stop.ring, `focus ring on ${stop.name}`).toBe(true);
+    }
+    expect(stops.length).toBeGreaterThanOrEqual(5);
+    // and a person can sign in with the keyboard alone
+    await page.getByLabel('E-mail address').focus();
+    await page.keyboard.type(DEMO_PEOPLE.reader.email);
+    await page.keyboard.press('Tab');
+    await page.keyboard.type(DEMO_PEOPLE.reader.password);
+    await page.keyboard.press('Enter');
+    await page.getByRole('heading', { name: 'Your notebooks' }).waitFor();
+  });
+
   it('loads nothing from any outside host', async () => {
     const outside: string[] = [];
     const watch = (url: string) => {
