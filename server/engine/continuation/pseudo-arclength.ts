@@ -90,7 +90,8 @@ export function correct(
     system.evaluate(z, ws.g);
     if (!allFinite(ws.g, s - 1)) return { converged: false, iterations: it };
     const f = ws.factorBordered(system, z, row);
-    if (f.singular) return { converged: false, iterations: it };
+    // Singular at a point that already solves both equations (e.g. exactly at a branch point).
+    if (f.singular) return { converged: normInf(ws.g, s - 1) <= tolerances.newtonResidual * (1 + normInf(z, s)) * 1e-3 && Math.abs(dot(row, z, s) - target) <= tolerances.correctorStep * (1 + normInf(z, s)), iterations: it };
     ws.rhs.set(ws.g);
     ws.rhs[s - 1] = dot(row, z, s) - target;
     luSolve(f, ws.rhs, ws.d);

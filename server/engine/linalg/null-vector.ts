@@ -37,10 +37,12 @@ export function nullSpaceBasis(matrix: Float64Array, rows: number, cols: number,
       g[i * cols + j] = s;
       g[j * cols + i] = s;
     }
-  const size = Math.max(normInf(g), 1e-300);
+  let basis: Float64Array[] = orthonormalize(Array.from({ length: dim }, (_, k) => Float64Array.from({ length: cols }, (_, i) => Math.sin(1 + (k + 1) * (i + 1) * 0.7))));
+  const size = normInf(g);
+  // A zero matrix: every vector is a null vector.
+  if (!(size > 0)) return basis;
   for (let i = 0; i < cols; i++) g[i * cols + i] += 1e-13 * size;
   const lu = luFactor(g, cols, true);
-  let basis: Float64Array[] = Array.from({ length: dim }, (_, k) => Float64Array.from({ length: cols }, (_, i) => Math.sin(1 + (k + 1) * (i + 1) * 0.7)));
   for (let it = 0; it < iterations; it++) basis = orthonormalize(basis.map((v) => luSolve(lu, v)));
   return basis;
 }

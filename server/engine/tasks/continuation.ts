@@ -56,7 +56,7 @@ export function followBothWays(
 
 /** A point of a traced branch: the curve point and its description. */
 interface TracedPoint extends CurvePoint {
-  data: { point: BranchPoint; branchSign: number };
+  data: { point: BranchPoint };
 }
 
 interface Located {
@@ -97,7 +97,7 @@ export function runContinuation(model: CompiledModel, task: ContinuationTask, ct
   const describe = (pt: CurvePoint): TracedPoint['data'] => {
     model.jacobian(pt.y, system.parametersAt(pt.y), jac);
     const point: BranchPoint = { state: named(model.variables, pt.y), parameter: pt.y[n], ...stabilityOf(jac, n, ctx.tolerances), residual: pt.residual };
-    return { point, branchSign: branchTest(system, pt.y, pt.tangent).sign };
+    return { point };
   };
   const options = { step: task.step, bounds: [{ index: n, min: task.bounds.min, max: task.bounds.max }], deadline: ctx.deadline, tolerances: ctx.tolerances, describe };
   const follow = (sign: number, maxPoints: number): FollowResult => {
@@ -132,6 +132,8 @@ function locateEvents(model: CompiledModel, k: number, p: Float64Array, system: 
   const events: BranchEvent[] = [];
   const branchPoints = new Map<number, LocatedBranchPoint>();
   const stateJacobian = (y: Float64Array, out: Float64Array) => model.jacobian(y, system.parametersAt(y), out);
+  // The test's sign depends on the tangent's orientation: taken once the branch is in its final order.
+  const signs = traced.map((pt) => branchTest(system, pt.y, pt.tangent).sign);
   for (let i = 0; i + 1 < traced.length; i++) {
     if (pastDeadline(ctx)) break;
     const [a, b] = [traced[i], traced[i + 1]];
@@ -140,7 +142,7 @@ function locateEvents(model: CompiledModel, k: number, p: Float64Array, system: 
     if (ta * tb < 0) {
       const fold = foldEvent(model, k, p, a, b, i, ctx);
       if (fold) events.push(fold);
-    } else if (a.data.branchSign * b.data.branchSign < 0) {
+    } else if (signs[i] * signs[i + 1] < 0) {
       const bp = locateBranchPoint(system, a, b, n, ctx.tolerances);
       if (bp) {
         branchPoints.set(events.length, bp);
