@@ -67,8 +67,9 @@ function complexForm(real: (args: Float64Array[]) => Float64Array, args: Complex
  * with B, C the second and third derivatives of f, and the normalisation Aq = iωq, Aᵀp = −iωp,
  * ⟨q, q⟩ = 1, ⟨p, q⟩ = 1, ⟨u, v⟩ = Σ ū_i v_i. The value depends on this normalisation (its sign
  * does not): l1 < 0 means a supercritical Hopf bifurcation. B is exact (symbolic second
- * derivatives); C is the central difference of B along its third argument, accurate to about
- * 1e-9 relative.
+ * derivatives); C is the central difference of B along its third argument with Richardson
+ * extrapolation, accurate to about 1e-9 relative. `degenerate` when |l1| ≤ degenerate ×
+ * max(size of the three terms, ω) (the ω floor assumes state values of order one).
  */
 export function hopfCoefficients(model: CompiledModel, x: Float64Array, parameters: Float64Array, omega: number, degenerate: number): HopfCoefficients {
   const n = model.n;
@@ -109,10 +110,16 @@ export function hopfCoefficients(model: CompiledModel, x: Float64Array, paramete
     let ws = 0;
     for (let i = 0; i < n; i++) ws = Math.max(ws, Math.abs(w[i]));
     if (ws === 0) return new Float64Array(n);
-    const h = (1e-4 * (1 + xs)) / ws;
-    const plus = b2(x.map((xi, i) => xi + h * w[i]), [u, v]);
-    const minus = b2(x.map((xi, i) => xi - h * w[i]), [u, v]);
-    return plus.map((pv, i) => (pv - minus[i]) / (2 * h));
+    // Central differences at h and h/2 combined by Richardson extrapolation (error O(h⁴)).
+    const central = (h: number) => {
+      const plus = b2(x.map((xi, i) => xi + h * w[i]), [u, v]);
+      const minus = b2(x.map((xi, i) => xi - h * w[i]), [u, v]);
+      return plus.map((pv, i) => (pv - minus[i]) / (2 * h));
+    };
+    const h = (1e-3 * (1 + xs)) / ws;
+    const coarse = central(h);
+    const fine = central(h / 2);
+    return fine.map((f, i) => (4 * f - coarse[i]) / 3);
   };
   const B = (u: ComplexVector, v: ComplexVector) => complexForm((args) => b2(x, args), [u, v]);
   const C = (u: ComplexVector, v: ComplexVector, w: ComplexVector) => complexForm(c3, [u, v, w]);
@@ -143,7 +150,8 @@ export function hopfCoefficients(model: CompiledModel, x: Float64Array, paramete
   const term3 = innerProduct(p, B(qb, s2));
   const l1 = (term1.re - 2 * term2.re + term3.re) / (2 * omega);
   const size = (Math.abs(term1.re) + 2 * Math.abs(term2.re) + Math.abs(term3.re)) / (2 * omega);
-  return { l1, q, p, degenerate: !(Math.abs(l1) > degenerate * Math.max(size, 1e-300)) || size === 0 };
+  // Degenerate: |l1| small against its own terms and against ω (the latter for state scales of order 1).
+  return { l1, q, p, degenerate: !(Math.abs(l1) > degenerate * Math.max(size, omega)) };
 }
 
 /**
