@@ -9,7 +9,7 @@ import {
   splitByStability,
 } from '@/features/cells/plots/branch-diagram-spec.ts';
 import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
-import { mirroredSaddleNodeBranch, saddleNodeBranch } from './plot-fixtures.ts';
+import { firstFold, mirroredSaddleNodeBranch, saddleNodeBranch } from './plot-fixtures.ts';
 
 type Layer = {
   name?: string;
@@ -67,7 +67,7 @@ describe('projectState', () => {
 describe('foldPrediction', () => {
   it('matches the closed form x = ±√μ of x′ = μ − x² and lies on the side equilibriaSide says (above)', () => {
     const r = saddleNodeBranch();
-    const pred = foldPrediction(r.branch.events[0], 0, 'x', 0.5);
+    const pred = foldPrediction(firstFold(r), 0, 'x', 0.5);
     expect(pred.length).toBeGreaterThan(10);
     for (const p of pred) {
       expect(p.parameter).toBeGreaterThanOrEqual(0);
@@ -79,13 +79,13 @@ describe('foldPrediction', () => {
 
   it('lies below μ* when equilibriaSide is "below"', () => {
     const r = mirroredSaddleNodeBranch();
-    const pred = foldPrediction(r.branch.events[0], 0, 'x', 0.5);
+    const pred = foldPrediction(firstFold(r), 0, 'x', 0.5);
     expect(pred.every((p) => p.parameter <= 0)).toBe(true);
     for (const p of pred) expect(p.y).toBeCloseTo(p.sign * Math.sqrt(-p.parameter), 12);
   });
 
   it('draws nothing for a degenerate fold', () => {
-    const e = saddleNodeBranch().branch.events[0];
+    const e = firstFold(saddleNodeBranch());
     expect(
       foldPrediction({ ...e, normalForm: { ...e.normalForm, nondegenerate: false } }, 0, 'x', 1),
     ).toEqual([]);

@@ -52,10 +52,9 @@ export function saddleNodeBranch(n = 81, muMax = 1): ContinuationResult {
 export function mirroredSaddleNodeBranch(): ContinuationResult {
   const r = saddleNodeBranch();
   r.branch.points = r.branch.points.map((p) => ({ ...p, parameter: -p.parameter }));
-  r.branch.events = r.branch.events.map((e) => ({
-    ...e,
-    normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' },
-  }));
+  r.branch.events = r.branch.events.map((e) =>
+    e.kind === 'fold' ? { ...e, normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' as const } } : e,
+  );
   return r;
 }
 
@@ -86,4 +85,11 @@ export function cuspFoldCurve(n = 201, xMax = 1): FoldCurveResult {
     },
     engine: { version: 'test', elapsedMs: 1 },
   };
+}
+
+/** The first event of a fixture branch, which is a fold. */
+export function firstFold(r: ContinuationResult): FoldEvent {
+  const e = r.branch.events[0];
+  if (e.kind !== 'fold') throw new Error('the fixture starts with a fold');
+  return e;
 }

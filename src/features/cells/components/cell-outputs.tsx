@@ -2,7 +2,7 @@ import { useMemo, useRef, useState } from 'react';
 import type { ContinuationResult, EquilibriaResult, FoldCurveResult, SimulateResult, Stability } from '@shared/engine/contract.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { cn } from '@/components/ui/cn.ts';
-import { branchDiagramSpec, NORM_AXIS } from '../plots/branch-diagram-spec.ts';
+import { branchDiagramSpec, EVENT_NAMES, NORM_AXIS } from '../plots/branch-diagram-spec.ts';
 import { foldMapSpec } from '../plots/fold-map-spec.ts';
 import { formatEigenvalues, formatNumber, readPlotPalette } from '../plots/plot-palette.ts';
 import { phasePlaneSpec, timeSeriesSpec } from '../plots/trajectory-spec.ts';
@@ -145,9 +145,9 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
                 >
                   <td className={td}>
                     <button type="button" className="font-medium text-accent underline-offset-2 hover:underline" onClick={() => select(i)}>
-                      fold
+                      {EVENT_NAMES[e.kind]}
                     </button>
-                    {!e.normalForm.nondegenerate && <span className="ml-1 text-xs text-warning">(degenerate)</span>}
+                    {e.kind === 'fold' && !e.normalForm.nondegenerate && <span className="ml-1 text-xs text-warning">(degenerate)</span>}
                   </td>
                   <td className={cn(td, 'figures')}>{formatNumber(e.parameter)}</td>
                   <td className={cn(td, 'figures text-xs')}>
@@ -155,10 +155,14 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
                       .map(([k, v]) => `${k} = ${formatNumber(v)}`)
                       .join(', ')}
                   </td>
-                  <td className={cn(td, 'figures')}>{formatNumber(e.normalForm.a)}</td>
-                  <td className={cn(td, 'figures')}>{formatNumber(e.normalForm.b)}</td>
+                  <td className={cn(td, 'figures')}>{e.kind === 'fold' ? formatNumber(e.normalForm.a) : '—'}</td>
+                  <td className={cn(td, 'figures')}>{e.kind === 'fold' ? formatNumber(e.normalForm.b) : '—'}</td>
                   <td className={td}>
-                    {parameter} {e.normalForm.equilibriaSide === 'above' ? '>' : '<'} {formatNumber(e.parameter)}
+                    {e.kind === 'fold'
+                      ? `${parameter} ${e.normalForm.equilibriaSide === 'above' ? '>' : '<'} ${formatNumber(e.parameter)}`
+                      : e.kind === 'hopf'
+                        ? `periodic orbits, ${e.criticality} (ω = ${formatNumber(e.frequency)})`
+                        : `branches cross (${e.type})`}
                   </td>
                   <td className={cn(td, 'text-xs')}>{stabilityChange(result, e.after)}</td>
                 </tr>
@@ -167,7 +171,7 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
           </table>
         </div>
       ) : (
-        <p className="mt-2 text-sm text-ink-muted">No folds on this stretch of the branch.</p>
+        <p className="mt-2 text-sm text-ink-muted">No folds or other events on this stretch of the branch.</p>
       )}
     </div>
   );

@@ -1,3 +1,4 @@
+import { useRef } from 'react';
 import { VegaEmbed } from 'react-vega';
 import type { Result, VisualizationSpec } from 'vega-embed';
 import { expressionInterpreter } from 'vega-interpreter';
@@ -10,7 +11,10 @@ export type PlotClick = (datum: Record<string, unknown>) => void;
  * code is fetched when a plot is on screen.
  */
 export default function VegaPlot({ spec, label, onClickDatum }: { spec: VisualizationSpec; label: string; onClickDatum?: PlotClick }) {
+  const box = useRef<HTMLDivElement>(null);
   const onEmbed = (result: Result) => {
+    // The export menu's toggle has no text of its own.
+    box.current?.querySelectorAll('details > summary').forEach((s) => s.setAttribute('aria-label', 'Save the plot as an image'));
     if (!onClickDatum) return;
     result.view.addEventListener('click', (_event, item) => {
       const datum = (item as { datum?: Record<string, unknown> } | null | undefined)?.datum;
@@ -19,7 +23,7 @@ export default function VegaPlot({ spec, label, onClickDatum }: { spec: Visualiz
   };
   return (
     <VegaEmbed
-      role="img"
+      ref={box}
       aria-label={label}
       className="w-full"
       spec={spec}

@@ -1,5 +1,5 @@
 import type { TopLevelSpec } from 'vega-lite';
-import type { BranchPoint, ContinuationResult, FoldEvent, Stability, Values } from '@shared/engine/contract.ts';
+import type { BranchEvent, BranchPoint, ContinuationResult, FoldEvent, Stability, Values } from '@shared/engine/contract.ts';
 import {
   formatEigenvalues,
   formatNumber,
@@ -162,6 +162,9 @@ export interface BranchDiagramOptions {
   height?: number;
 }
 
+/** Events in words, as the plot labels and the events table name them. */
+export const EVENT_NAMES: Record<BranchEvent['kind'], string> = { fold: 'fold', hopf: 'Hopf', 'branch-point': 'branch point' };
+
 const STABILITY_LABEL: Record<Stability, string> = { stable: 'stable', unstable: 'unstable', neutral: 'neutral' };
 
 /** The field's convention: stable solid, unstable dashed; neutral (rare, at the boundary) dotted grey. */
@@ -184,7 +187,7 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
   const yValues = lineRows.map((r) => r.y);
   const muRange = paddedRange(points.map((pt) => pt.parameter), 0.03);
   const span = 0.12 * (muRange[1] - muRange[0]);
-  const folds = events.map((e, i) => ({ e, i })).filter(({ e }) => e.kind === 'fold');
+  const folds = events.flatMap((e, i) => (e.kind === 'fold' ? [{ e, i }] : []));
   const prediction = folds.flatMap(({ e, i }) => foldPrediction(e, i, o.yVariable, span));
   const yDomain = paddedRange([...yValues, ...events.map((e) => projectState(e.state, o.yVariable))]);
   const predictionRows = prediction
@@ -206,9 +209,9 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
     kind: e.kind,
     mu: e.parameter,
     y: projectState(e.state, o.yVariable),
-    label: `fold  ${o.parameter} = ${formatNumber(e.parameter)}`,
-    a: formatNumber(e.normalForm.a),
-    b: formatNumber(e.normalForm.b),
+    label: `${EVENT_NAMES[e.kind]}  ${o.parameter} = ${formatNumber(e.parameter)}`,
+    a: e.kind === 'fold' ? formatNumber(e.normalForm.a) : '—',
+    b: e.kind === 'fold' ? formatNumber(e.normalForm.b) : '—',
     selected: i === o.selectedEvent,
   }));
 

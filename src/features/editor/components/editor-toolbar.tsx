@@ -84,16 +84,16 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
       </Tool>
       <Sep />
       <Tool label="Heading" active={state.h2} onClick={() => c().toggleHeading({ level: 2 }).run()}>
-        H2
+        Heading
       </Tool>
       <Tool label="Subheading" active={state.h3} onClick={() => c().toggleHeading({ level: 3 }).run()}>
-        H3
+        Subheading
       </Tool>
-      <Tool label="Bulleted list" active={state.bullet} onClick={() => c().toggleBulletList().run()}>
-        • list
+      <Tool label="List" active={state.bullet} onClick={() => c().toggleBulletList().run()}>
+        • List
       </Tool>
       <Tool label="Numbered list" active={state.ordered} onClick={() => c().toggleOrderedList().run()}>
-        1. list
+        1. Numbered list
       </Tool>
       <Tool label="Quote" active={state.quote} onClick={() => c().toggleBlockquote().run()}>
         “ ”
@@ -102,14 +102,14 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
         <span className="font-mono text-xs">{'{ }'}</span>
       </Tool>
       <Sep />
-      <Tool label="Inline formula" onClick={() => c().insertInlineMath('').run()}>
-        <span className="font-serif italic">x²</span>
+      <Tool label="Formula" onClick={() => c().insertInlineMath('').run()}>
+        <span className="font-serif italic">x²</span>&nbsp;Formula
       </Tool>
       <Tool label="Equation" onClick={() => c().insertDisplayMath('').run()}>
-        <span className="font-serif italic">∑ eq.</span>
+        Equation
       </Tool>
       <Tool label="Picture" onClick={() => setImageOpen(true)}>
-        picture
+        Picture
       </Tool>
       <Sep />
       <Tool label="Undo" disabled={!state.canUndo} onClick={() => c().undo().run()}>

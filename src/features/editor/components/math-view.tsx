@@ -43,7 +43,7 @@ export function MathView({ node, updateAttributes, deleteNode, editor, selected 
       <Tag
         role={editor.isEditable ? 'button' : undefined}
         tabIndex={editor.isEditable ? 0 : undefined}
-        aria-label={editor.isEditable ? `Formula ${latex}. Press Enter to edit.` : undefined}
+        title={editor.isEditable ? 'Click or press Enter to edit the formula' : undefined}
         onClick={open}
         onKeyDown={(e) => {
           if (e.key === 'Enter') {
