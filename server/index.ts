@@ -7,6 +7,7 @@ import { createApp, type AppOptions } from './app.ts';
 import { createDataSource } from './data-source.ts';
 import { loadEnvOrExit, type Env } from './env.ts';
 import { createSmtpMailer } from './mail/mailer.ts';
+import { startMailOutboxWorker } from './jobs/mail-outbox-worker.ts';
 import { createS3Storage } from './storage/s3-storage.ts';
 
 export interface RunningServer {
@@ -22,6 +23,7 @@ export async function startServer(env: Env, options: AppOptions & { host?: strin
   const mailer = createSmtpMailer(env);
   const storage = createS3Storage(env);
   const bifolio = createApp({ env, dataSource, mailer, storage }, options);
+  const outbox = startMailOutboxWorker(dataSource, mailer);
   getAnalysisPool(); // starts a worker now, so the first cell run does not wait for the engine to load
   const server: Server = await new Promise((resolve, reject) => {
     const s = bifolio.app.listen(env.PORT, options.host ?? '127.0.0.1', (error?: Error) => (error ? reject(error) : resolve(s)));
@@ -35,6 +37,7 @@ export async function startServer(env: Env, options: AppOptions & { host?: strin
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       await bifolio.close();
+      await outbox.stop();
       await closeAnalysisPool();
       mailer.close();
       storage.client.destroy();

@@ -8,9 +8,15 @@ import { MembershipEntity } from './membership.entity.ts';
 import { NotebookEntity } from './notebook.entity.ts';
 import { PasswordResetEntity } from './password-reset.entity.ts';
 import { UserEntity } from './user.entity.ts';
+import { CommentEntity } from './comment.entity.ts';
+import { MailMessageEntity } from './mail-message.entity.ts';
+import { NotificationPreferenceEntity } from './notification-preference.entity.ts';
+import { ReviewEntity } from './review.entity.ts';
+import { SignatureEntity } from './signature.entity.ts';
 
 export { AnalysisResultEntity, EntryDraftEntity, EntryEntity, RevisionEntity };
+export { CommentEntity, MailMessageEntity, NotificationPreferenceEntity, ReviewEntity, SignatureEntity };
 export { AuditEventEntity, InviteEntity, MembershipEntity, NotebookEntity, PasswordResetEntity, UserEntity };
 
 /** Every entity the DataSource knows. Register a new entity with one line here. */
-export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity];
+export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity, ReviewEntity, SignatureEntity, CommentEntity, MailMessageEntity, NotificationPreferenceEntity];

@@ -1,7 +1,8 @@
-import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn, type Relation } from 'typeorm';
+import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, OneToMany, PrimaryGeneratedColumn, type Relation } from 'typeorm';
 import type { CellOutputs } from '@shared/cells/output.ts';
 import type { DocumentJson } from '@shared/editor/document.ts';
 import type { EntryEntity } from './entry.entity.ts';
+import type { SignatureEntity } from './signature.entity.ts';
 import type { UserEntity } from './user.entity.ts';
 
 /**
@@ -62,4 +63,8 @@ export class RevisionEntity {
 
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' })
   createdAt: Date;
+
+  /** Electronic signatures on this revision (loaded when presenting a whole revision). */
+  @OneToMany('SignatureEntity', 'revision')
+  signatures?: Relation<SignatureEntity[]>;
 }

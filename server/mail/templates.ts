@@ -3,7 +3,7 @@ import type { MailMessage } from './mailer.ts';
 const escapeHtml = (s: string) =>
   s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
 
-function layout(paragraphs: string[], link: { href: string; label: string }): string {
+export function layout(paragraphs: string[], link: { href: string; label: string }): string {
   const body = paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n');
   return `<!doctype html><html><body style="font-family: sans-serif; line-height: 1.5; color: #1f2933">
 ${body}

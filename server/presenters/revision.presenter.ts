@@ -1,8 +1,9 @@
 import type { Revision, RevisionSummary } from '@shared/api/entries.ts';
 import type { RevisionEntity } from '@server/entities/revision.entity.ts';
+import { presentSignature, type SignatureWithSigner } from './signature.presenter.ts';
 
 /** A revision with its author loaded. */
-export type RevisionWithAuthor = RevisionEntity & { author: { id: string; name: string } };
+export type RevisionWithAuthor = RevisionEntity & { author: { id: string; name: string }; signatures?: SignatureWithSigner[] };
 
 export function presentRevisionSummary(r: RevisionWithAuthor): RevisionSummary {
   return {
@@ -26,5 +27,6 @@ export function presentRevision(r: RevisionWithAuthor): Revision {
     tags: r.tags,
     document: r.document,
     outputs: r.outputs,
+    signatures: (r.signatures ?? []).map(presentSignature),
   };
 }

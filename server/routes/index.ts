@@ -8,6 +8,10 @@ import { invitesRoutes } from './invites.routes.ts';
 import { notebooksRoutes } from './notebooks.routes.ts';
 import { outboxRoutes } from './outbox.routes.ts';
 import { accountRoutes, usersRoutes } from './users.routes.ts';
+import { auditRoutes } from './audit.routes.ts';
+import { commentsRoutes } from './comments.routes.ts';
+import { notificationsRoutes } from './notifications.routes.ts';
+import { reviewQueueRoutes, reviewsRoutes } from './reviews.routes.ts';
 
 export interface RouteRegistration {
   /** Mount path under /api. */
@@ -27,5 +31,10 @@ export const API_ROUTES: RouteRegistration[] = [
   { path: '/notebooks', create: notebooksRoutes },
   { path: '/notebooks/:notebookId', create: entriesRoutes },
   { path: '/engine', create: engineRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/review', create: reviewsRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/comments', create: commentsRoutes },
+  { path: '/reviews', create: reviewQueueRoutes },
+  { path: '/audit', create: auditRoutes },
+  { path: '/account/notifications', create: notificationsRoutes },
   { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
 ];

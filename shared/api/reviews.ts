@@ -14,6 +14,8 @@ const personRefSchema = z.object({ id: z.uuid(), name: z.string() });
  * POST /review/approve           approveReview         -> reviewDetail with the new signature
  *                                                         401 code "signature_failed" when the password is wrong (audited)
  *                                                         409 code "conflict" when `revisionId` is no longer the review's revision
+ *                                                         409 code "not_reproduced" (body error.reproducibility: the report) when the
+ *                                                         rerun differs and `acceptDifferences` is not true; nothing is signed
  * GET  /review/reproducibility                         -> reproducibilityReport (reruns every cell of the review's revision now,
  *                                                         without signing; the same check runs inside approve)
  *

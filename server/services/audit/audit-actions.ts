@@ -19,5 +19,15 @@ export const AUDIT_ACTIONS = [
   'revision.recorded',
   'revision.restored',
   'cell.run',
+  'review.submitted',
+  'review.seen',
+  'review.changes_requested',
+  'review.approved',
+  'review.signature_failed',
+  'comment.created',
+  'comment.resolved',
+  'comment.reopened',
+  'notifications.updated',
+  'audit.exported',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];

@@ -30,7 +30,7 @@ export async function listRevisions(ctx: ActingContext, entry: EntryEntity): Pro
 /** One revision of the entry, whole. */
 export async function getRevision(ctx: ActingContext, entry: EntryEntity, revisionId: string): Promise<RevisionWithAuthor> {
   if (!isUuid(revisionId)) throw new NotFoundError('No such revision of this entry');
-  const revision = await ctx.manager.findOne(RevisionEntity, { where: { id: revisionId, entryId: entry.id }, relations: { author: true } });
+  const revision = await ctx.manager.findOne(RevisionEntity, { where: { id: revisionId, entryId: entry.id }, relations: { author: true, signatures: { signer: true } } });
   if (!revision) throw new NotFoundError('No such revision of this entry');
   return revision;
 }

@@ -6,6 +6,7 @@ import { RevisionEntity } from '@server/entities/revision.entity.ts';
 import type { RevisionWithAuthor } from '@server/presenters/revision.presenter.ts';
 import { recordEvent } from '@server/services/audit/record-event.ts';
 import type { ActingContext } from '@server/services/entries/service-context.ts';
+import { followNewRevision } from '@server/services/reviews/follow-revision.ts';
 import { revisionContentHash } from './content-hash.ts';
 import { pruneOutputs } from './prune-outputs.ts';
 import { RevisionConflictError } from './revision-conflict.error.ts';
@@ -37,7 +38,7 @@ export function searchTextOf(props: { title: string; tags: string[]; document: D
 
 /** A revision with its author, for presenting. */
 export async function findRevisionWithAuthor(ctx: ActingContext, id: string): Promise<RevisionWithAuthor | null> {
-  return ctx.manager.findOne(RevisionEntity, { where: { id }, relations: { author: true } });
+  return ctx.manager.findOne(RevisionEntity, { where: { id }, relations: { author: true, signatures: { signer: true } } });
 }
 
 /**
@@ -80,6 +81,7 @@ export async function recordRevision(ctx: ActingContext, props: RecordRevisionPr
     revisionCount: number,
     searchText: searchTextOf(content),
   });
+  await followNewRevision(ctx, entry, revision.id);
   if (props.consumeDraft ?? true) await ctx.manager.delete(EntryDraftEntity, { entryId: entry.id, userId: ctx.actor.id });
 
   await recordEvent(ctx.manager, {
