@@ -1,6 +1,7 @@
-import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { launchBrowser, saveScreenshot } from '../support/browser.ts';
+import { DEMO_NOTEBOOKS } from '../../seeds/demo-people.ts';
 import { signIn, signOut } from './helpers.ts';
 
 const baseUrl = inject('baseUrl');
@@ -26,6 +27,11 @@ beforeAll(async () => {
 // Each step starts signed out, whatever the one before left behind.
 beforeEach(async () => {
   await browser.context.clearCookies();
+});
+
+afterEach(async (ctx) => {
+  if (ctx.task.result?.state === 'fail')
+    await saveScreenshot(page, `invite-and-reset-failure-${ctx.task.name.slice(0, 40).replace(/\W+/g, '-')}`);
 });
 
 afterAll(async () => {
@@ -174,6 +180,37 @@ describe('the account page', () => {
     await signOut(page);
     await signInWith(newcomer.email, newcomer.third);
     await page.getByRole('heading', { name: 'Your notebooks' }).waitFor();
+  });
+});
+
+describe('managing notebook members', () => {
+  it('the PI adds the newcomer, changes their role, and removes them again', async () => {
+    await signIn(page, baseUrl, 'pi');
+    await page.getByRole('link', { name: new RegExp(DEMO_NOTEBOOKS.geneSwitch.title) }).click();
+    const members = page.getByRole('list', { name: /^Members of/ });
+    await members.waitFor();
+    await page.getByRole('button', { name: 'Add member' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Add a member' });
+    await dialog.getByLabel('E-mail address').fill(newcomer.email);
+    await dialog.getByLabel('Role').selectOption('reader');
+    await dialog.getByRole('button', { name: 'Add member' }).click();
+    await dialog.waitFor({ state: 'hidden' });
+    const role = page.getByRole('combobox', { name: `Role of ${newcomer.renamed}` });
+    await role.waitFor();
+    expect(await role.inputValue()).toBe('reader');
+
+    await role.selectOption('researcher');
+    await page.reload();
+    await role.waitFor();
+    expect(await role.inputValue()).toBe('researcher');
+
+    await page.getByRole('button', { name: `Remove ${newcomer.renamed}` }).click();
+    await page
+      .getByRole('dialog', { name: `Remove ${newcomer.renamed}?` })
+      .getByRole('button', { name: 'Remove from notebook' })
+      .click();
+    await members.getByText(newcomer.renamed, { exact: true }).waitFor({ state: 'detached' });
+    await signOut(page);
   });
 });
 
