@@ -201,4 +201,37 @@ describe('an entry with cells', () => {
   it('has no serious accessibility problems with every cell kind and the history on the page', async () => {
     expect(await seriousAxeViolations(page)).toEqual([]);
   });
+
+  it('rebases onto a revision recorded meanwhile instead of overwriting it', async () => {
+    const body = page.getByRole('textbox', { name: 'Entry body' });
+    await body.locator('p').first().click({ position: { x: 2, y: 8 } });
+    await page.keyboard.press('End');
+    await page.keyboard.type(' My local note.');
+    // Meanwhile, another tab records a revision with a paragraph of its own.
+    const [, , notebookId, , entryId] = new URL(entryUrl).pathname.split('/');
+    type Detail = { head: { id: string; number: number; title: string; entryDate: string; tags: string[]; document: { content: unknown[] }; outputs: unknown } };
+    const detail = await api<Detail>(page, 'GET', `/api/notebooks/${notebookId}/entries/${entryId}`);
+    const h = detail.head;
+    await api(page, 'POST', `/api/notebooks/${notebookId}/entries/${entryId}/revisions`, {
+      baseRevisionId: h.id,
+      title: h.title,
+      entryDate: h.entryDate,
+      tags: h.tags,
+      document: { type: 'doc', content: [...h.document.content, { type: 'paragraph', content: [{ type: 'text', text: 'Added from another tab.' }] }] },
+      outputs: h.outputs,
+      message: 'From another tab',
+    });
+    await page.getByRole('button', { name: 'Record revision' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Record revision' }).click();
+    const conflict = page.getByRole('dialog', { name: 'Someone recorded a newer revision' });
+    await conflict.getByText('Added from another tab.').first().waitFor();
+    await conflict.getByRole('button', { name: `Rebase my changes onto #${h.number + 1}` }).click();
+    await body.getByText('Added from another tab.').waitFor();
+    expect(await body.textContent()).toContain('My local note.');
+    await page.getByRole('button', { name: 'Record revision' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Record revision' }).click();
+    await page.getByTestId('save-state').getByText('recorded').waitFor();
+    const after = await api<Detail>(page, 'GET', `/api/notebooks/${notebookId}/entries/${entryId}`);
+    expect(after.head.number).toBe(h.number + 2);
+  });
 });

@@ -93,7 +93,7 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
         • List
       </Tool>
       <Tool label="Numbered list" active={state.ordered} onClick={() => c().toggleOrderedList().run()}>
-        1. Numbered list
+        <span aria-hidden="true">1.</span>&nbsp;Numbered list
       </Tool>
       <Tool label="Quote" active={state.quote} onClick={() => c().toggleBlockquote().run()}>
         “ ”
@@ -103,7 +103,10 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
       </Tool>
       <Sep />
       <Tool label="Formula" onClick={() => c().insertInlineMath('').run()}>
-        <span className="font-serif italic">x²</span>&nbsp;Formula
+        <span aria-hidden="true" className="font-serif italic">
+          x²
+        </span>
+        &nbsp;Formula
       </Tool>
       <Tool label="Equation" onClick={() => c().insertDisplayMath('').run()}>
         Equation
