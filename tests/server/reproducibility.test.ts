@@ -1,0 +1,91 @@
+import { describe, expect, it } from 'vitest';
+import { REPRODUCIBILITY_RELATIVE_TOLERANCE } from '@shared/api/reviews.ts';
+import type { ContinuationResult, EquilibriaResult, FoldCurveResult, SimulateResult } from '@shared/engine/contract.ts';
+import { close, compareResults } from '@server/services/reproducibility/compare-results.ts';
+
+/**
+ * The comparison behind the reproducibility check, on hand-made results. Values follow x' = μ − x²:
+ * equilibria x = ±√μ, one fold at μ = 0, x = 0 (closed form; Strogatz, "Nonlinear Dynamics and
+ * Chaos", §3.1).
+ */
+const engine = { version: 'test', elapsedMs: 1 };
+const point = (mu: number, x: number, stability: 'stable' | 'unstable') => ({
+  parameter: mu, state: { x }, stability, eigenvalues: [{ re: -2 * x, im: 0 }], unstableDimension: stability === 'unstable' ? 1 : 0, residual: 0,
+});
+const fold = (mu: number) => ({
+  kind: 'fold' as const, parameter: mu, state: { x: 0 }, after: 1, eigenvalues: [{ re: 0, im: 0 }], residual: 0,
+  normalForm: { a: 1, b: -2, nullVector: { x: 1 }, adjointNullVector: { x: 1 }, equilibriaSide: 'above' as const, nondegenerate: true },
+});
+const branch = (foldAt: number, points = [point(1, 1, 'stable'), point(0.25, 0.5, 'stable'), point(0.25, -0.5, 'unstable')]): ContinuationResult => ({
+  branch: { points, events: [fold(foldAt)], stopReason: 'bounds' },
+  engine,
+});
+
+describe('close', () => {
+  it('uses a relative tolerance above 1 and an absolute one below', () => {
+    expect(REPRODUCIBILITY_RELATIVE_TOLERANCE).toBe(1e-6);
+    expect(close(1000, 1000.0009, 1e-6)).toBe(true);
+    expect(close(1000, 1000.002, 1e-6)).toBe(false);
+    expect(close(0, 9e-7, 1e-6)).toBe(true);
+    expect(close(0, 2e-6, 1e-6)).toBe(false);
+    expect(close(Number.NaN, Number.NaN, 1e-6)).toBe(true);
+  });
+});
+
+describe('compareResults', () => {
+  it('finds nothing when the rerun agrees within the tolerance', () => {
+    expect(compareResults(branch(0), branch(4e-7), 'mu')).toEqual([]);
+  });
+
+  it('names a moved fold by its parameter, with both values', () => {
+    expect(compareResults(branch(0.25), branch(0.250013), 'mu')).toEqual(['fold near mu = 0.2500: stored 0.250000, rerun 0.250013']);
+  });
+
+  it('reports a fold that only one run found', () => {
+    const none: ContinuationResult = { branch: { ...branch(0).branch, events: [] }, engine };
+    expect(compareResults(branch(0), none, 'mu')).toEqual(['fold near mu = 0.0000: in the stored result, not found by the rerun']);
+    expect(compareResults(none, branch(0), 'mu')).toEqual(['fold near mu = 0.0000: found by the rerun, not in the stored result']);
+  });
+
+  it('compares point counts, then each point, and the stop reason', () => {
+    const shorter = branch(0, [point(1, 1, 'stable'), point(0.25, 0.5, 'stable')]);
+    expect(compareResults(branch(0), shorter, 'mu')).toEqual(['branch: stored 3 points, rerun 2 points']);
+    const moved = branch(0, [point(1, 1, 'stable'), point(0.25, 0.5001, 'stable'), point(0.25, -0.5, 'stable')]);
+    expect(compareResults(branch(0), moved, 'mu')).toEqual(['branch point 2: x stored 0.500000, rerun 0.500100', 'branch point 3: stored unstable, rerun stable']);
+    const stopped: ContinuationResult = { branch: { ...branch(0).branch, stopReason: 'max-points' }, engine };
+    expect(compareResults(branch(0), stopped, 'mu')).toEqual(['stopped because: stored "bounds", rerun "max-points"']);
+  });
+
+  it('matches equilibria by nearest state, in any order', () => {
+    const eq = (xs: number[]): EquilibriaResult => ({
+      equilibria: xs.map((x) => ({ state: { x }, stability: x > 0 ? 'stable' : 'unstable', eigenvalues: [], unstableDimension: x > 0 ? 0 : 1, residual: 0 })),
+      starts: { tried: 10, converged: 10 }, stopReason: 'completed', engine,
+    });
+    expect(compareResults(eq([0.5, -0.5]), eq([-0.5, 0.5]), null)).toEqual([]);
+    expect(compareResults(eq([0.5, -0.5]), eq([0.5]), null)).toEqual(['equilibria: stored 2, rerun 1']);
+  });
+
+  it('compares fold curves and trajectories sample by sample', () => {
+    const curve = (b: number): FoldCurveResult => ({
+      curve: { points: [{ parameters: { mu: 0, k: b }, state: { x: 0 }, normalForm: { a: 1, b: -2 }, residual: 0 }], events: [], stopReason: 'bounds' },
+      engine,
+    });
+    expect(compareResults(curve(1), curve(1.01), null)).toEqual(['fold curve point 1: k stored 1.000000, rerun 1.010000']);
+    const traj = (x1: number): SimulateResult => ({ trajectory: { t: [0, 1], state: { x: [1, x1] } }, stopReason: 'end', steps: { accepted: 5, rejected: 0 }, engine });
+    expect(compareResults(traj(0.5), traj(0.5), null)).toEqual([]);
+    expect(compareResults(traj(0.5), traj(0.6), null)).toEqual(['at t = 1.00000: x stored 0.500000, rerun 0.600000']);
+  });
+
+  it('caps long lists of point differences', () => {
+    const many = (dx: number) => branch(0, Array.from({ length: 8 }, (_, i) => point(i, i + dx, 'stable')));
+    const lines = compareResults(many(0), many(0.01), 'mu');
+    expect(lines).toHaveLength(6);
+    expect(lines[5]).toBe('and 3 more differences');
+  });
+
+  it('says when the kinds of result differ', () => {
+    expect(compareResults(branch(0), { trajectory: { t: [], state: {} }, stopReason: 'end', steps: { accepted: 0, rejected: 0 }, engine }, 'mu')).toEqual([
+      'the rerun gave a different kind of result than the stored one',
+    ]);
+  });
+});
