@@ -20,6 +20,23 @@ export const paths = {
     path: '/notebooks/:notebookId/entries/:entryId',
     getHref: (notebookId: string, entryId: string) => `/notebooks/${notebookId}/entries/${entryId}`,
   },
+  entryReview: {
+    path: '/notebooks/:notebookId/entries/:entryId/review',
+    getHref: (notebookId: string, entryId: string) => `/notebooks/${notebookId}/entries/${entryId}/review`,
+  },
+  entryCompare: {
+    path: '/notebooks/:notebookId/entries/:entryId/compare',
+    getHref: (notebookId: string, entryId: string, from?: string, to?: string) =>
+      `/notebooks/${notebookId}/entries/${entryId}/compare${from && to ? `?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}` : ''}`,
+  },
+  reviewQueue: { path: '/reviews', getHref: () => '/reviews' },
+  audit: {
+    path: '/audit',
+    getHref: (filter: { notebookId?: string; entryId?: string; actorId?: string } = {}) => {
+      const q = new URLSearchParams(Object.entries(filter).filter(([, v]) => v) as [string, string][]).toString();
+      return `/audit${q ? `?${q}` : ''}`;
+    },
+  },
   account: { path: '/account', getHref: () => '/account' },
   adminUsers: { path: '/admin/users', getHref: () => '/admin/users' },
   adminInvites: { path: '/admin/invites', getHref: () => '/admin/invites' },

@@ -1,0 +1,1 @@
+export { AuditLog, type AuditScope } from './components/audit-log.tsx';

@@ -1,0 +1,90 @@
+import { useMemo, useState } from 'react';
+import { collapseUnchanged, describeUnchanged, type BlockDiff } from '@shared/diff/text-diff.ts';
+import { Badge } from '@/components/ui/badge.tsx';
+import { cn } from '@/components/ui/cn.ts';
+
+const STATUS_WORDS: Record<BlockDiff['status'], string> = { same: '', added: 'Added', removed: 'Removed', changed: 'Changed' };
+
+function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onComment?: (block: BlockDiff) => void; commentCount: number }) {
+  const text = block.parts.map((p) => p.text).join('');
+  const body = block.parts.map((part, i) =>
+    part.kind === 'same' ? (
+      <span key={i}>{part.text}</span>
+    ) : part.kind === 'added' ? (
+      <ins key={i} className="rounded-sm bg-success-soft text-success no-underline decoration-success/60 [text-decoration-line:underline]">
+        {part.text}
+      </ins>
+    ) : (
+      <del key={i} className="rounded-sm bg-unstable-soft text-unstable">
+        {part.text}
+      </del>
+    ),
+  );
+  const commentable = onComment && block.newIndex !== undefined;
+  return (
+    <li
+      className={cn(
+        'group relative flex gap-3 border-l-4 py-1.5 pr-2 pl-3',
+        block.status === 'same' && 'border-transparent',
+        block.status === 'added' && 'border-success bg-success-soft/40',
+        block.status === 'removed' && 'border-unstable bg-unstable-soft/40',
+        block.status === 'changed' && 'border-warning',
+      )}
+      data-status={block.status}
+    >
+      <div className={cn('min-w-0 flex-1 font-serif leading-relaxed', block.type === 'heading' && 'font-bold', (block.type === 'code' || block.type === 'maths') && 'font-mono text-sm', block.type === 'cell' && 'font-sans text-sm text-ink-muted italic')}>
+        {block.prefix && <span className="mr-2 font-mono text-xs text-ink-muted" aria-hidden="true">{block.prefix}</span>}
+        {STATUS_WORDS[block.status] && <span className="sr-only">{STATUS_WORDS[block.status]}: </span>}
+        {text.trim() === '' && block.type === 'paragraph' ? <span className="text-ink-muted">(empty paragraph)</span> : body}
+      </div>
+      <div className="flex shrink-0 items-start gap-1">
+        {block.status !== 'same' && <Badge tone={block.status === 'added' ? 'success' : block.status === 'removed' ? 'unstable' : 'warning'}>{STATUS_WORDS[block.status]}</Badge>}
+        {commentable && (
+          <button
+            type="button"
+            onClick={() => onComment(block)}
+            className={cn('rounded-sm px-1.5 text-xs text-accent hover:bg-accent-soft', commentCount === 0 && 'opacity-60 group-hover:opacity-100 focus:opacity-100')}
+            aria-label={`Comment on this ${block.type === 'cell' ? 'cell' : 'block'}: ${text.slice(0, 40)}`}
+          >
+            {commentCount > 0 ? `💬 ${commentCount}` : 'Comment'}
+          </button>
+        )}
+      </div>
+    </li>
+  );
+}
+
+/**
+ * The document diff as readable blocks: insertions and deletions marked inside changed blocks,
+ * long unchanged stretches folded behind a "show N unchanged paragraphs" button.
+ */
+export function TextDiffView({
+  blocks,
+  onComment,
+  commentCounts = {},
+}: {
+  blocks: readonly BlockDiff[];
+  onComment?: (block: BlockDiff) => void;
+  /** Open threads per anchor key ("block:3", "cell:<id>"). */
+  commentCounts?: Record<string, number>;
+}) {
+  const items = useMemo(() => collapseUnchanged(blocks), [blocks]);
+  const [opened, setOpened] = useState<Set<number>>(new Set());
+  if (blocks.length === 0) return <p className="text-sm text-ink-muted">Both revisions are empty.</p>;
+  const count = (b: BlockDiff) => commentCounts[b.cellId ? `cell:${b.cellId}` : `block:${b.newIndex}`] ?? 0;
+  return (
+    <ol className="space-y-0.5" aria-label="Changes to the text">
+      {items.map((item, i) => {
+        if (item.kind === 'block') return <BlockView key={i} block={item.block} onComment={onComment} commentCount={count(item.block)} />;
+        if (opened.has(i)) return item.blocks.map((b, k) => <BlockView key={`${i}:${k}`} block={b} onComment={onComment} commentCount={count(b)} />);
+        return (
+          <li key={i} className="py-1 pl-4">
+            <button type="button" onClick={() => setOpened(new Set(opened).add(i))} className="rounded-sm px-2 py-0.5 text-xs text-accent hover:bg-accent-soft">
+              Show {describeUnchanged(item.blocks)}
+            </button>
+          </li>
+        );
+      })}
+    </ol>
+  );
+}
