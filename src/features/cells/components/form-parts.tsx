@@ -15,7 +15,7 @@ export function SmallField({ label, error, children, className, hint }: { label:
 }
 
 export function SmallSelect({ className, ...rest }: SelectHTMLAttributes<HTMLSelectElement>) {
-  return <select className={cn(controlClass, 'h-8 px-2 pr-7 text-sm', className)} {...rest} />;
+  return <select className={cn(controlClass, 'h-8 w-full min-w-0 px-2 pr-7 text-sm', className)} {...rest} />;
 }
 
 export function NumberField({ label, value, onValue, error, optional, hint, className }: { label: string; value: unknown; onValue: (v: number | string | undefined) => void; error?: string; optional?: boolean; hint?: string; className?: string }) {

@@ -63,7 +63,7 @@ function TextCell({ value, onValue, error, placeholder, label, mono = true, clas
         spellCheck={false}
         autoComplete="off"
         onChange={(e) => onValue(e.target.value)}
-        className={cn(controlClass, 'h-8 min-w-0 px-2 text-sm', mono && 'font-mono')}
+        className={cn(controlClass, 'h-8 w-full min-w-0 px-2 text-sm', mono && 'font-mono')}
       />
       {error && <p className="mt-0.5 text-xs font-medium text-unstable">{error}</p>}
     </div>

@@ -43,7 +43,7 @@ export function NumberInput({ value, onValue, optional, className, ...rest }: Nu
         setText(e.target.value);
         onValue(optional && e.target.value.trim() === '' ? undefined : readNumber(e.target.value));
       }}
-      className={cn(controlClass, 'figures h-8 min-w-0 px-2 text-sm', className)}
+      className={cn(controlClass, 'figures h-8 w-full min-w-0 px-2 text-sm', className)}
       {...rest}
     />
   );

@@ -141,9 +141,9 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
           <span className="mb-1 block text-xs font-medium text-ink-muted">Search</span>
           <Input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Words in titles, text and cells" className="h-9" />
         </label>
-        <label>
+        <label className="w-44">
           <span className="mb-1 block text-xs font-medium text-ink-muted">Status</span>
-          <Select value={status} onChange={(e) => setStatus(e.target.value as EntryStatus | '')} className="h-9 w-44">
+          <Select value={status} onChange={(e) => setStatus(e.target.value as EntryStatus | '')} className="h-9">
             <option value="">Any</option>
             {ENTRY_STATUSES.map((s) => (
               <option key={s} value={s}>
@@ -152,17 +152,17 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
             ))}
           </Select>
         </label>
-        <label>
+        <label className="w-36">
           <span className="mb-1 block text-xs font-medium text-ink-muted">Tag</span>
-          <Input value={tag} onChange={(e) => setTag(e.target.value)} className="h-9 w-36" />
+          <Input value={tag} onChange={(e) => setTag(e.target.value)} className="h-9" />
         </label>
-        <label>
+        <label className="w-40">
           <span className="mb-1 block text-xs font-medium text-ink-muted">From</span>
-          <Input type="date" value={from} onChange={(e) => setFrom(e.target.value)} className="h-9 w-40" />
+          <Input type="date" value={from} onChange={(e) => setFrom(e.target.value)} className="h-9" />
         </label>
-        <label>
+        <label className="w-40">
           <span className="mb-1 block text-xs font-medium text-ink-muted">To</span>
-          <Input type="date" value={to} onChange={(e) => setTo(e.target.value)} className="h-9 w-40" />
+          <Input type="date" value={to} onChange={(e) => setTo(e.target.value)} className="h-9" />
         </label>
       </div>
       {entries.isPending ? (

@@ -187,14 +187,14 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
                   <span>by {detail.entry.author.name}</span>
                   {canWrite ? (
                     <>
-                      <label className="flex items-center gap-1">
+                      <label className="flex w-52 items-center gap-1">
                         <span>Date</span>
-                        <Input type="date" className="h-8 w-40 text-sm" value={working.entryDate} onChange={(e) => update({ entryDate: e.target.value })} />
+                        <Input type="date" className="h-8 text-sm" value={working.entryDate} onChange={(e) => update({ entryDate: e.target.value })} />
                       </label>
-                      <label className="flex items-center gap-1">
+                      <label className="flex w-80 items-center gap-1">
                         <span>Tags</span>
                         <Input
-                          className="h-8 w-64 text-sm"
+                          className="h-8 text-sm"
                           value={tagsDraft}
                           placeholder="ignition, continuation"
                           onChange={(e) => {
