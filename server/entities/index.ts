@@ -8,6 +8,9 @@ import { MembershipEntity } from './membership.entity.ts';
 import { NotebookEntity } from './notebook.entity.ts';
 import { PasswordResetEntity } from './password-reset.entity.ts';
 import { UserEntity } from './user.entity.ts';
+import { AttachmentEntity } from './attachment.entity.ts';
+import { FigureEntity } from './figure.entity.ts';
+import { MeasurementSetEntity } from './measurement-set.entity.ts';
 import { CommentEntity } from './comment.entity.ts';
 import { MailMessageEntity } from './mail-message.entity.ts';
 import { NotificationPreferenceEntity } from './notification-preference.entity.ts';
@@ -19,4 +22,4 @@ export { CommentEntity, MailMessageEntity, NotificationPreferenceEntity, ReviewE
 export { AuditEventEntity, InviteEntity, MembershipEntity, NotebookEntity, PasswordResetEntity, UserEntity };
 
 /** Every entity the DataSource knows. Register a new entity with one line here. */
-export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity, ReviewEntity, SignatureEntity, CommentEntity, MailMessageEntity, NotificationPreferenceEntity];
+export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity, ReviewEntity, SignatureEntity, CommentEntity, MailMessageEntity, NotificationPreferenceEntity, AttachmentEntity, FigureEntity, MeasurementSetEntity];

@@ -12,6 +12,9 @@ import { auditRoutes } from './audit.routes.ts';
 import { commentsRoutes } from './comments.routes.ts';
 import { notificationsRoutes } from './notifications.routes.ts';
 import { reviewQueueRoutes, reviewsRoutes } from './reviews.routes.ts';
+import { attachmentsRoutes } from './attachments.routes.ts';
+import { figuresRoutes } from './figures.routes.ts';
+import { measurementsRoutes } from './measurements.routes.ts';
 
 export interface RouteRegistration {
   /** Mount path under /api. */
@@ -36,5 +39,8 @@ export const API_ROUTES: RouteRegistration[] = [
   { path: '/reviews', create: reviewQueueRoutes },
   { path: '/audit', create: auditRoutes },
   { path: '/account/notifications', create: notificationsRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/attachments', create: attachmentsRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/figures', create: figuresRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/measurements', create: measurementsRoutes },
   { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
 ];

@@ -1,6 +1,10 @@
+import type { Readable } from 'node:stream';
+
 /** Where figures and attachments live. The app depends only on this interface. */
 export interface FileStorage {
   put(key: string, body: Buffer | Uint8Array | string, contentType: string): Promise<void>;
+  /** Stores a stream of known length without buffering it; `contentDisposition` is served with downloads. */
+  putStream(key: string, body: Readable, props: { contentType: string; byteLength: number; contentDisposition?: string }): Promise<void>;
   /** The object's bytes, or null when there is none under `key`. */
   get(key: string): Promise<Buffer | null>;
   delete(key: string): Promise<void>;

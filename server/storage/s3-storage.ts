@@ -25,6 +25,11 @@ export function createS3Storage(env: S3Settings): FileStorage & { client: S3Clie
     async put(key, body, contentType) {
       await client.send(new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: contentType }));
     },
+    async putStream(key, body, props) {
+      await client.send(
+        new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: props.contentType, ContentLength: props.byteLength, ContentDisposition: props.contentDisposition }),
+      );
+    },
     async get(key) {
       try {
         const out = await client.send(new GetObjectCommand({ Bucket, Key: key }));

@@ -29,5 +29,10 @@ export const AUDIT_ACTIONS = [
   'comment.reopened',
   'notifications.updated',
   'audit.exported',
+  'attachment.added',
+  'attachment.removed',
+  'figure.attached',
+  'measurements.imported',
+  'export.created',
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
