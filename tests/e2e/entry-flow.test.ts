@@ -184,7 +184,7 @@ describe('an entry with cells', () => {
       .getByLabel('What changed (optional)')
       .fill('Branch, equilibria, trajectory and fold map of the adiabatic tank');
     await dialog.getByRole('button', { name: 'Record revision' }).click();
-    await page.getByTestId('save-state').getByText('recorded').waitFor();
+    await page.getByTestId('save-state').getByText('recorded', { exact: true }).waitFor();
     await page.screenshot({ path: `${SCREENSHOT_DIR}entry-page.png`, fullPage: true });
     await page.reload();
     await cell('branch').locator('svg').first().waitFor();
@@ -230,7 +230,7 @@ describe('an entry with cells', () => {
     expect(await body.textContent()).toContain('My local note.');
     await page.getByRole('button', { name: 'Record revision' }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Record revision' }).click();
-    await page.getByTestId('save-state').getByText('recorded').waitFor();
+    await page.getByTestId('save-state').getByText('recorded', { exact: true }).waitFor();
     const after = await api<Detail>(page, 'GET', `/api/notebooks/${notebookId}/entries/${entryId}`);
     expect(after.head.number).toBe(h.number + 2);
   });

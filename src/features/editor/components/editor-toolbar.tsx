@@ -13,12 +13,13 @@ type ToolbarProps = {
   createCellInput: (kind: CellKind) => Record<string, unknown>;
 };
 
-function Tool({ label, active, onClick, children, disabled }: { label: string; active?: boolean; onClick: () => void; children: React.ReactNode; disabled?: boolean }) {
+/** A toolbar button; its visible text is its name, or `label` when it shows only a symbol. */
+function Tool({ label, active, onClick, children, disabled, symbol }: { label: string; active?: boolean; onClick: () => void; children: React.ReactNode; disabled?: boolean; symbol?: boolean }) {
   return (
     <button
       type="button"
       title={label}
-      aria-label={label}
+      aria-label={symbol ? label : undefined}
       aria-pressed={active}
       disabled={disabled}
       onMouseDown={(e) => e.preventDefault()}
@@ -67,16 +68,16 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
 
   return (
     <div role="toolbar" aria-label="Formatting" className="sticky top-0 z-30 flex flex-wrap items-center gap-0.5 border-b border-rule bg-surface/95 px-2 py-1.5 backdrop-blur">
-      <Tool label="Bold" active={state.bold} onClick={() => c().toggleBold().run()}>
+      <Tool symbol label="Bold" active={state.bold} onClick={() => c().toggleBold().run()}>
         <b>B</b>
       </Tool>
-      <Tool label="Italic" active={state.italic} onClick={() => c().toggleItalic().run()}>
+      <Tool symbol label="Italic" active={state.italic} onClick={() => c().toggleItalic().run()}>
         <i className="font-serif">I</i>
       </Tool>
-      <Tool label="Strike through" active={state.strike} onClick={() => c().toggleStrike().run()}>
+      <Tool symbol label="Strike through" active={state.strike} onClick={() => c().toggleStrike().run()}>
         <s>S</s>
       </Tool>
-      <Tool label="Code" active={state.code} onClick={() => c().toggleCode().run()}>
+      <Tool symbol label="Code" active={state.code} onClick={() => c().toggleCode().run()}>
         <span className="font-mono text-xs">{'</>'}</span>
       </Tool>
       <Tool label="Link" active={state.link} onClick={() => (state.link ? c().unsetLink().run() : setLinkOpen(true))}>
@@ -95,10 +96,10 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
       <Tool label="Numbered list" active={state.ordered} onClick={() => c().toggleOrderedList().run()}>
         <span aria-hidden="true">1.</span>&nbsp;Numbered list
       </Tool>
-      <Tool label="Quote" active={state.quote} onClick={() => c().toggleBlockquote().run()}>
+      <Tool symbol label="Quote" active={state.quote} onClick={() => c().toggleBlockquote().run()}>
         “ ”
       </Tool>
-      <Tool label="Code block" active={state.codeBlock} onClick={() => c().toggleCodeBlock().run()}>
+      <Tool symbol label="Code block" active={state.codeBlock} onClick={() => c().toggleCodeBlock().run()}>
         <span className="font-mono text-xs">{'{ }'}</span>
       </Tool>
       <Sep />
@@ -115,10 +116,10 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
         Picture
       </Tool>
       <Sep />
-      <Tool label="Undo" disabled={!state.canUndo} onClick={() => c().undo().run()}>
+      <Tool symbol label="Undo" disabled={!state.canUndo} onClick={() => c().undo().run()}>
         ↶
       </Tool>
-      <Tool label="Redo" disabled={!state.canRedo} onClick={() => c().redo().run()}>
+      <Tool symbol label="Redo" disabled={!state.canRedo} onClick={() => c().redo().run()}>
         ↷
       </Tool>
       <div className="relative ml-auto">
