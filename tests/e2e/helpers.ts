@@ -10,6 +10,11 @@ const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core
 export async function signIn(page: Page, baseUrl: string, who: DemoPersonKey): Promise<void> {
   const person = DEMO_PEOPLE[who];
   await page.goto(`${baseUrl}/sign-in`);
+  // A session can outlive clearCookies when a late response sets its cookie again: end it first.
+  const form = page.getByRole('form', { name: 'Sign in' });
+  const menu = page.getByRole('button', { name: /account menu/ });
+  await form.or(menu).first().waitFor();
+  if (await menu.isVisible()) await signOut(page);
   await page.getByLabel('E-mail address').fill(person.email);
   await page.getByLabel('Password', { exact: true }).fill(person.password);
   await page.getByRole('button', { name: 'Sign in' }).click();

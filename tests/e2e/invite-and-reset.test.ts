@@ -180,6 +180,7 @@ describe('the account page', () => {
     await signOut(page);
     await signInWith(newcomer.email, newcomer.third);
     await page.getByRole('heading', { name: 'Your notebooks' }).waitFor();
+    await signOut(page);
   });
 });
 
