@@ -32,7 +32,7 @@ describe('mail outbox', () => {
     const dir = logServer().sink.directory;
     return Promise.all(readdirSync(dir).map(async (f) => (await simpleParser(readFileSync(path.join(dir, f)))).subject ?? ''));
   };
-  const enqueue = (subject: string, to = DEMO_PEOPLE.pi.email) =>
+  const enqueue = (subject: string, to: string = DEMO_PEOPLE.pi.email) =>
     logServer().dataSource.transaction((manager) => enqueueMail(manager, { kind: 'review-requested', message: { to, subject, text: `${subject}\n`, html: `<p>${subject}</p>` } }));
   const wait = (ms: number) => new Promise((r) => setTimeout(r, ms));
 

@@ -70,7 +70,7 @@ describe('compareResults', () => {
       curve: { points: [{ parameters: { mu: 0, k: b }, state: { x: 0 }, normalForm: { a: 1, b: -2 }, residual: 0 }], events: [], stopReason: 'bounds' },
       engine,
     });
-    expect(compareResults(curve(1), curve(1.01), null)).toEqual(['fold curve point 1: k stored 1.000000, rerun 1.010000']);
+    expect(compareResults(curve(1), curve(1.01), null)).toEqual(['curve point 1: k stored 1.000000, rerun 1.010000']);
     const traj = (x1: number): SimulateResult => ({ trajectory: { t: [0, 1], state: { x: [1, x1] } }, stopReason: 'end', steps: { accepted: 5, rejected: 0 }, engine });
     expect(compareResults(traj(0.5), traj(0.5), null)).toEqual([]);
     expect(compareResults(traj(0.5), traj(0.6), null)).toEqual(['at t = 1.00000: x stored 0.500000, rerun 0.600000']);

@@ -126,9 +126,9 @@ export function compareResults(stored: AnalyzeResult, rerun: AnalyzeResult, para
         (a, b) => valuesDiffer(`${a.kind} near ${paramsAt(a.parameters)}`, a.parameters, b.parameters, tol),
         tol,
       ),
-      ...comparePointLists('fold curve', s.points, r.points, (a, b, i) => [
-        ...valuesDiffer(`fold curve point ${i + 1}`, a.parameters, b.parameters, tol),
-        ...valuesDiffer(`fold curve point ${i + 1}`, a.state, b.state, tol),
+      ...comparePointLists<{ parameters: Values; state: Values }>('curve', s.points, r.points, (a, b, i) => [
+        ...valuesDiffer(`curve point ${i + 1}`, a.parameters, b.parameters, tol),
+        ...valuesDiffer(`curve point ${i + 1}`, a.state, b.state, tol),
       ]),
     ];
   }

@@ -1,4 +1,4 @@
-import { ReviewEntity } from '@server/entities/review.entity.ts';
+import type { ReviewEntity } from '@server/entities/review.entity.ts';
 import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { ConflictError, NotFoundError } from '@server/errors/index.ts';
 import type { ReviewAction } from '@server/policies/review.policy.ts';
@@ -24,5 +24,3 @@ export async function loadOpenReview(
   }
   return review;
 }
-
-export type { ReviewEntity };

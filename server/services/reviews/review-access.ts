@@ -4,7 +4,7 @@ import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { MembershipEntity } from '@server/entities/membership.entity.ts';
 import { ReviewEntity } from '@server/entities/review.entity.ts';
 import { SignatureEntity } from '@server/entities/signature.entity.ts';
-import { UserEntity } from '@server/entities/user.entity.ts';
+import type { UserEntity } from '@server/entities/user.entity.ts';
 import { authorizeReview, type ReviewAction } from '@server/policies/review.policy.ts';
 import type { ReviewView } from '@server/presenters/review.presenter.ts';
 import type { SignatureWithSigner } from '@server/presenters/signature.presenter.ts';
