@@ -17,6 +17,7 @@ import type { TaskContext } from './tasks/context.ts';
 import { runContinuation } from './tasks/continuation.ts';
 import { runEquilibria } from './tasks/equilibria.ts';
 import { runFoldCurve } from './tasks/fold-curve.ts';
+import { runHopfCurve } from './tasks/hopf-curve.ts';
 import { runSimulate } from './tasks/simulate.ts';
 import { ENGINE_VERSION } from './version.ts';
 
@@ -87,6 +88,10 @@ export function analyze(request: unknown, options: AnalyzeOptions = {}): Analyze
     }
     case 'fold-curve': {
       const curve = runFoldCurve(model, task, ctx);
+      return { curve, engine: engine() };
+    }
+    case 'hopf-curve': {
+      const curve = runHopfCurve(model, task, ctx);
       return { curve, engine: engine() };
     }
     case 'simulate': {

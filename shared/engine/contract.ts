@@ -135,6 +135,14 @@ export const foldCurveTaskSchema = z.object({
 });
 
 /**
+ * Follow a Hopf point in two parameters. `start` should be near a Hopf point, e.g. a "hopf" event
+ * of a continuation; it is first converged onto the Hopf point with the second parameter held
+ * fixed (the complex pair nearest the imaginary axis is taken). Steps are lengths in the joint
+ * (state, eigenvector, frequency, two parameters) space.
+ */
+export const hopfCurveTaskSchema = foldCurveTaskSchema.extend({ kind: z.literal('hopf-curve') });
+
+/**
  * Integration methods: "explicit" Dormand–Prince 5(4); "implicit" a linearly implicit Rosenbrock
  * method with the exact Jacobian (for stiff models); "auto" starts explicit and switches to the
  * implicit method when stiffness is detected.
@@ -166,9 +174,10 @@ export const taskSchema = z.discriminatedUnion('kind', [
   equilibriaTaskSchema,
   continuationTaskSchema,
   foldCurveTaskSchema,
+  hopfCurveTaskSchema,
   simulateTaskSchema,
 ]);
-export const TASK_KINDS = ['equilibria', 'continuation', 'fold-curve', 'simulate'] as const;
+export const TASK_KINDS = ['equilibria', 'continuation', 'fold-curve', 'hopf-curve', 'simulate'] as const;
 export type TaskKind = (typeof TASK_KINDS)[number];
 
 export const analyzeRequestSchema = z.object({
@@ -184,6 +193,7 @@ export type AnalyzeRequest = z.output<typeof analyzeRequestSchema>;
 export type EquilibriaTask = z.output<typeof equilibriaTaskSchema>;
 export type ContinuationTask = z.output<typeof continuationTaskSchema>;
 export type FoldCurveTask = z.output<typeof foldCurveTaskSchema>;
+export type HopfCurveTask = z.output<typeof hopfCurveTaskSchema>;
 export type SimulateTask = z.output<typeof simulateTaskSchema>;
 export type Task = z.output<typeof taskSchema>;
 
@@ -320,7 +330,7 @@ export type BranchEvent = z.infer<typeof branchEventSchema>;
 
 /**
  * Why a branch or curve stopped. "start-not-converged": Newton did not converge at the start, so
- * nothing could be followed.
+ * nothing could be followed. "end-point": a Hopf curve ends at a Bogdanov–Takens point (ω = 0).
  */
 export const STOP_REASONS = [
   'bounds',
@@ -329,6 +339,7 @@ export const STOP_REASONS = [
   'step-too-small',
   'time-limit',
   'start-not-converged',
+  'end-point',
 ] as const;
 export type StopReason = (typeof STOP_REASONS)[number];
 
@@ -360,13 +371,51 @@ export const cuspEventSchema = z.object({
 });
 export type CuspEvent = z.infer<typeof cuspEventSchema>;
 
+/**
+ * Codimension-two points where fold and Hopf curves meet or degenerate (Kuznetsov, Elements of
+ * Applied Bifurcation Theory, 3rd ed., ch. 8): "cusp" (fold curve, b = 0); "bogdanov-takens"
+ * (a second eigenvalue reaches zero on a fold curve; on a Hopf curve, ω reaches zero);
+ * "zero-hopf" (a fold with a pair ±iω: on a fold curve a complex pair crosses the axis, on a
+ * Hopf curve a real eigenvalue reaches zero); "generalized-hopf" (Hopf curve, l1 = 0).
+ */
+export const CODIMENSION_TWO_KINDS = ['cusp', 'bogdanov-takens', 'zero-hopf', 'generalized-hopf'] as const;
+export const codimensionTwoEventSchema = z.object({
+  kind: z.enum(CODIMENSION_TWO_KINDS),
+  parameters: valuesSchema,
+  state: valuesSchema,
+  /** Index of the curve point just before it. */
+  after: z.number().int(),
+});
+export type CodimensionTwoEvent = z.infer<typeof codimensionTwoEventSchema>;
+
 export const foldCurveSchema = z.object({
   points: z.array(foldCurvePointSchema),
-  events: z.array(cuspEventSchema),
+  /** Cusps, Bogdanov–Takens and zero-Hopf points along the fold curve. */
+  events: z.array(codimensionTwoEventSchema),
   stopReason: z.enum(STOP_REASONS),
   stopReasonAtStart: z.enum(STOP_REASONS).optional(),
 });
 export type FoldCurve = z.infer<typeof foldCurveSchema>;
+
+export const hopfCurvePointSchema = z.object({
+  parameters: valuesSchema,
+  state: valuesSchema,
+  frequency: z.number(),
+  /** l1 with the normalisation of "hopf" events. */
+  firstLyapunovCoefficient: z.number(),
+  /** ‖(f, J·a + ω·b, J·b − ω·a, …)‖₂ of the extended system (diagnostics). */
+  residual: z.number(),
+});
+export type HopfCurvePoint = z.infer<typeof hopfCurvePointSchema>;
+
+export const hopfCurveSchema = z.object({
+  points: z.array(hopfCurvePointSchema),
+  /** Generalized Hopf, zero-Hopf and Bogdanov–Takens points along the Hopf curve. */
+  events: z.array(codimensionTwoEventSchema),
+  stopReason: z.enum(STOP_REASONS),
+  stopReasonAtStart: z.enum(STOP_REASONS).optional(),
+});
+export type HopfCurve = z.infer<typeof hopfCurveSchema>;
 
 export const EQUILIBRIA_STOP_REASONS = ['completed', 'time-limit'] as const;
 export const equilibriaResultSchema = z.object({
@@ -384,6 +433,9 @@ export type ContinuationResult = z.infer<typeof continuationResultSchema>;
 export const foldCurveResultSchema = z.object({ curve: foldCurveSchema, engine: engineInfoSchema });
 export type FoldCurveResult = z.infer<typeof foldCurveResultSchema>;
 
+export const hopfCurveResultSchema = z.object({ curve: hopfCurveSchema, engine: engineInfoSchema });
+export type HopfCurveResult = z.infer<typeof hopfCurveResultSchema>;
+
 /** "end": reached time.end; "not-finite": the solution left the floating-point range. */
 export const SIMULATE_STOP_REASONS = ['end', 'step-too-small', 'not-finite', 'time-limit'] as const;
 export const simulateResultSchema = z.object({
@@ -397,12 +449,13 @@ export const simulateResultSchema = z.object({
 });
 export type SimulateResult = z.infer<typeof simulateResultSchema>;
 
-export type AnalyzeResult = EquilibriaResult | ContinuationResult | FoldCurveResult | SimulateResult;
+export type AnalyzeResult = EquilibriaResult | ContinuationResult | FoldCurveResult | HopfCurveResult | SimulateResult;
 /** The result type for a given task kind. */
 export interface ResultByKind {
   equilibria: EquilibriaResult;
   continuation: ContinuationResult;
   'fold-curve': FoldCurveResult;
+  'hopf-curve': HopfCurveResult;
   simulate: SimulateResult;
 }
 

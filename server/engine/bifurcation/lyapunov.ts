@@ -158,7 +158,7 @@ export function hopfCoefficients(model: CompiledModel, x: Float64Array, paramete
  * A vector of ker(A − iωI) (or, with `adjoint`, of ker(Aᵀ + iωI)) from the real 2n×2n form
  * [[A, ωI], [−ωI, A]] (resp. [[Aᵀ, −ωI], [ωI, Aᵀ]]) acting on (re, im), by inverse iteration.
  */
-function complexNullVector(a: Float64Array, n: number, omega: number, adjoint: boolean): ComplexVector {
+export function complexNullVector(a: Float64Array, n: number, omega: number, adjoint: boolean): ComplexVector {
   const m = 2 * n;
   const r = new Float64Array(m * m);
   const w = adjoint ? -omega : omega;

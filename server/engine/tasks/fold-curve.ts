@@ -1,4 +1,4 @@
-import { ENGINE_ERROR_CODES, type CuspEvent, type FoldCurve, type FoldCurvePoint, type FoldCurveTask } from '@shared/engine/contract.ts';
+import { ENGINE_ERROR_CODES, type CodimensionTwoEvent, type FoldCurve, type FoldCurvePoint, type FoldCurveTask } from '@shared/engine/contract.ts';
 import { EngineRequestError } from '../errors.ts';
 import { locateAlongCurve } from '../bifurcation/cusp.ts';
 import { locateFold } from '../bifurcation/fold.ts';
@@ -9,7 +9,8 @@ import { nullVectorEstimate } from '../linalg/null-vector.ts';
 import type { CompiledModel } from '../model/compile.ts';
 import { convergeStart, followBothWays } from './continuation.ts';
 import { pastDeadline, type TaskContext } from './context.ts';
-import { named, parameterIndex, vectorFrom } from './present.ts';
+import { named, vectorFrom } from './present.ts';
+import { twoParameterSetup } from './two-parameter.ts';
 
 /**
  * A fold followed in two parameters (μ, κ) = task.parameters on the standard extended system
@@ -19,21 +20,7 @@ import { named, parameterIndex, vectorFrom } from './present.ts';
  */
 export function runFoldCurve(model: CompiledModel, task: FoldCurveTask, ctx: TaskContext): FoldCurve {
   const n = model.n;
-  const [name1, name2] = task.parameters;
-  const k1 = parameterIndex(model, name1, 'task.parameters[0]');
-  const k2 = parameterIndex(model, name2, 'task.parameters[1]');
-  for (const key of Object.keys(task.bounds))
-    if (key !== name1 && key !== name2)
-      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.unknownReference, message: `"${key}" is not one of the two continued parameters (${name1}, ${name2})`, path: `task.bounds.${key}` });
-  for (const name of task.parameters)
-    if (!task.bounds[name])
-      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.invalidRequest, message: `Give bounds for ${name}, e.g. "${name}": [-1, 1]`, path: `task.bounds.${name}` });
-  const p = vectorFrom(model.parameters, task.start.parameters, 'task.start.parameters', 'parameter', model.parameterValues());
-  for (const [k, name] of [[k1, name1], [k2, name2]] as const) {
-    const [lo, hi] = task.bounds[name];
-    if (p[k] < lo || p[k] > hi)
-      throw new EngineRequestError({ code: ENGINE_ERROR_CODES.invalidRequest, message: `The start value of ${name} (${p[k]}) lies outside its bounds [${lo}, ${hi}]`, path: `task.bounds.${name}` });
-  }
+  const { k1, k2, p, names: [name1, name2] } = twoParameterSetup(model, task);
   const guess = vectorFrom(model.variables, task.start.state, 'task.start.state', 'variable');
   const x0 = convergeStart(model, guess, p, ctx)?.y ?? guess;
   const jac = new Float64Array(n * n);
@@ -74,7 +61,7 @@ export function runFoldCurve(model: CompiledModel, task: FoldCurveTask, ctx: Tas
   const points = described.map((d) => d.point);
   const continuousB = described.map((d) => d.continuousB);
   const bScale = Math.max(...continuousB.map(Math.abs), 1e-300);
-  const events: CuspEvent[] = [];
+  const events: CodimensionTwoEvent[] = [];
   for (let i = 0; i + 1 < points.length; i++) {
     if (!(continuousB[i] * continuousB[i + 1] < 0) || pastDeadline(ctx)) continue;
     const a = traced.points[i];
