@@ -1,6 +1,5 @@
-import { Link, useParams, useSearchParams } from 'react-router';
-import { paths } from '@/config/paths.ts';
-import { EntryComparePage } from '@/features/reviews/index.ts';
+import { useParams, useSearchParams } from 'react-router';
+import { EntryComparePage, EntryCrumbs } from '@/features/reviews/index.ts';
 import { useNotebook } from '@/features/notebooks/api/get-notebook.ts';
 import { useDocumentTitle } from '@/lib/use-document-title.ts';
 import { NotebookGate } from './notebook-gate.tsx';
@@ -15,13 +14,7 @@ export default function EntryCompareRoute() {
     <NotebookGate notebookId={notebookId} loadingLabel="Loading the revisions">
       {(nb) => (
         <div>
-          <nav aria-label="Breadcrumb" className="mb-3 text-sm">
-            <Link to={paths.notebook.getHref(notebookId)}>{nb.title}</Link>
-            <span className="mx-2 text-ink-muted">/</span>
-            <Link to={paths.entry.getHref(notebookId, entryId)}>Entry</Link>
-            <span className="mx-2 text-ink-muted">/</span>
-            <span className="text-ink-muted">Compare</span>
-          </nav>
+          <EntryCrumbs notebookId={notebookId} notebookTitle={nb.title} entryId={entryId} page="Compare" />
           <EntryComparePage
             notebookId={notebookId}
             entryId={entryId}

@@ -1,6 +1,5 @@
-import { Link, useParams } from 'react-router';
-import { paths } from '@/config/paths.ts';
-import { EntryReviewPage } from '@/features/reviews/index.ts';
+import { useParams } from 'react-router';
+import { EntryCrumbs, EntryReviewPage } from '@/features/reviews/index.ts';
 import { useNotebook } from '@/features/notebooks/api/get-notebook.ts';
 import { useDocumentTitle } from '@/lib/use-document-title.ts';
 import { NotebookGate } from './notebook-gate.tsx';
@@ -16,14 +15,8 @@ export default function EntryReviewRoute() {
     <NotebookGate notebookId={notebookId} loadingLabel="Loading the review">
       {(nb) => (
         <div>
-          <nav aria-label="Breadcrumb" className="mb-3 text-sm">
-            <Link to={paths.notebook.getHref(notebookId)}>{nb.title}</Link>
-            <span className="mx-2 text-ink-muted">/</span>
-            <Link to={paths.entry.getHref(notebookId, entryId)}>Entry</Link>
-            <span className="mx-2 text-ink-muted">/</span>
-            <span className="text-ink-muted">Review</span>
-          </nav>
-          <EntryReviewPage notebookId={notebookId} entryId={entryId} isPi={nb.role === 'pi'} me={{ id: session.user.id, name: session.user.name }} />
+          <EntryCrumbs notebookId={notebookId} notebookTitle={nb.title} entryId={entryId} page="Review" />
+          <EntryReviewPage notebookId={notebookId} entryId={entryId} isPi={nb.role === 'pi'} canWrite={nb.role !== 'reader'} me={{ id: session.user.id, name: session.user.name }} />
         </div>
       )}
     </NotebookGate>

@@ -4,3 +4,4 @@ export { ReviewQueue } from './components/review-queue.tsx';
 export { EntryReviewPage } from './components/entry-review-page.tsx';
 export { EntryComparePage } from './components/entry-compare-page.tsx';
 export { useReview } from './api/get-review.ts';
+export { EntryCrumbs } from './components/entry-crumbs.tsx';

@@ -19,6 +19,7 @@ import { CommentsPanel, openThreadCounts, type AnchorChoice } from './comments-p
 import { ApproveButton, RequestChangesButton } from './decision-dialogs.tsx';
 import { ComparePicker, LoadedComparison, RevisionComparison, useAnchorDescriber, type ComparePreset } from './revision-compare.tsx';
 import { SignatureBlock } from './signature-block.tsx';
+import { SubmitForReviewButton } from './submit-for-review-button.tsx';
 
 /** Named starting points for the comparison, newest-first revisions given. */
 export function comparePresets(revisions: readonly RevisionSummary[], review: ReviewDetail | null, toId: string): ComparePreset[] {
@@ -40,7 +41,7 @@ export function comparePresets(revisions: readonly RevisionSummary[], review: Re
  * they last looked, otherwise since before it was submitted), comment threads on blocks and
  * cells, and the decision — request changes or approve with a signature.
  */
-export function EntryReviewPage({ notebookId, entryId, isPi, me }: { notebookId: string; entryId: string; isPi: boolean; me: { id: string; name: string } }) {
+export function EntryReviewPage({ notebookId, entryId, isPi, canWrite, me }: { notebookId: string; entryId: string; isPi: boolean; canWrite: boolean; me: { id: string; name: string } }) {
   const entry = useEntry(notebookId, entryId);
   const review = useReview(notebookId, entryId);
   const revisions = useRevisions(notebookId, entryId);
@@ -97,6 +98,8 @@ export function EntryReviewPage({ notebookId, entryId, isPi, me }: { notebookId:
               <RequestChangesButton notebookId={notebookId} entryId={entryId} revisionId={r.revisionId} />
               <ApproveButton notebookId={notebookId} entryId={entryId} revisionId={r.revisionId} signerName={me.name} />
             </div>
+          ) : canWrite && !open && !(r?.status === 'approved' && r.revisionId === entry.data.head.id) ? (
+            <SubmitForReviewButton notebookId={notebookId} entryId={entryId} revisionId={entry.data.head.id} label={r ? 'Submit again for review' : 'Submit for review'} />
           ) : undefined
         }
       >
