@@ -4,6 +4,7 @@ import {
   engineFieldErrorSchema,
   equilibriaResultSchema,
   foldCurveResultSchema,
+  hopfCurveResultSchema,
   simulateResultSchema,
   type ContinuationResult,
   type EquilibriaResult,
@@ -27,6 +28,7 @@ import type { AnalysisCellKind } from './kinds.ts';
 export const engineResultSchema = z.union([
   continuationResultSchema,
   foldCurveResultSchema,
+  hopfCurveResultSchema,
   simulateResultSchema,
   equilibriaResultSchema,
 ]);

@@ -9,6 +9,7 @@ import {
   quantitativeChannel,
   type PlotPalette,
 } from './plot-palette.ts';
+import { levelCrossings } from './level-crossings.ts';
 
 /** What the vertical axis shows: one state variable, or the Euclidean norm of the state. */
 export const NORM_AXIS = '‖x‖';
@@ -116,16 +117,11 @@ export function flowBands(points: readonly BranchPoint[], variable: string, yDom
   const out: FlowCell[] = [];
   for (let c = 0; c < columns; c++) {
     const mu = lo + (c + 0.5) * width;
-    const crossings: { x: number; stability: Stability }[] = [];
-    for (let i = 0; i + 1 < points.length; i++) {
+    const crossings = levelCrossings(mus, mu).map(({ i, t }) => {
       const p = points[i];
       const q = points[i + 1];
-      if ((p.parameter - mu) * (q.parameter - mu) > 0 || p.parameter === q.parameter) continue;
-      if (q.parameter === mu && i + 2 < points.length) continue; // counted once, by the next pair
-      const t = (mu - p.parameter) / (q.parameter - p.parameter);
-      const x = p.state[variable] + t * (q.state[variable] - p.state[variable]);
-      crossings.push({ x, stability: t < 0.5 ? p.stability : q.stability });
-    }
+      return { x: p.state[variable] + t * (q.state[variable] - p.state[variable]), stability: t < 0.5 ? p.stability : q.stability };
+    });
     if (crossings.length === 0) continue;
     crossings.sort((m, n) => m.x - n.x);
     const below = (s: Stability) => (s === 'stable' ? 1 : s === 'unstable' ? -1 : 0);

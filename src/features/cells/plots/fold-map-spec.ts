@@ -1,5 +1,6 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { FoldCurveResult } from '@shared/engine/contract.ts';
+import { levelCrossings } from './level-crossings.ts';
 import { formatNumber, hoverLayer, layeredPlot, paddedRange, quantitativeChannel, type PlotPalette } from './plot-palette.ts';
 
 export interface RegionBand {
@@ -35,16 +36,13 @@ export function bistableBands(curve: FoldCurveResult['curve'], p1: string, p2: s
   const bands: RegionBand[] = [];
   for (let r = 0; r < rows; r++) {
     const y = lo + (r + 0.5) * h;
-    const crossings: { x: number; side: number }[] = [];
-    for (let i = 0; i + 1 < pts.length; i++) {
-      const a = pts[i];
-      const b = pts[i + 1];
-      if ((a.y - y) * (b.y - y) > 0 || a.y === b.y) continue;
-      if (b.y === y && i + 2 < pts.length) continue;
-      const t = (y - a.y) / (b.y - a.y);
-      const side = t < 0.5 ? a.side || b.side : b.side || a.side;
-      if (side !== 0) crossings.push({ x: a.x + t * (b.x - a.x), side });
-    }
+    const crossings = levelCrossings(ys, y)
+      .map(({ i, t }) => {
+        const a = pts[i];
+        const b = pts[i + 1];
+        return { x: a.x + t * (b.x - a.x), side: t < 0.5 ? a.side || b.side : b.side || a.side };
+      })
+      .filter((c) => c.side !== 0);
     crossings.sort((m, n) => m.x - n.x);
     const push = (x: number, x2: number) => {
       const from = Math.max(x, xDomain[0]);
