@@ -14,6 +14,7 @@ import { notificationsRoutes } from './notifications.routes.ts';
 import { reviewQueueRoutes, reviewsRoutes } from './reviews.routes.ts';
 import { attachmentsRoutes } from './attachments.routes.ts';
 import { figuresRoutes } from './figures.routes.ts';
+import { exportsRoutes } from './exports.routes.ts';
 import { measurementsRoutes } from './measurements.routes.ts';
 
 export interface RouteRegistration {
@@ -42,5 +43,6 @@ export const API_ROUTES: RouteRegistration[] = [
   { path: '/notebooks/:notebookId/entries/:entryId/attachments', create: attachmentsRoutes },
   { path: '/notebooks/:notebookId/entries/:entryId/figures', create: figuresRoutes },
   { path: '/notebooks/:notebookId/entries/:entryId/measurements', create: measurementsRoutes },
+  { path: '/notebooks/:notebookId/entries/:entryId/export', create: exportsRoutes },
   { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
 ];
