@@ -164,9 +164,9 @@ export function FoldMapForm(p: AnalysisFormProps & { cells: readonly DocumentCel
         <div className="mb-1 flex flex-wrap items-center gap-3">
           <span className="text-xs font-semibold tracking-wide text-ink-muted uppercase">Start near a fold</span>
           {folds.length > 0 && (
+            <div className="w-72">
             <SmallSelect
               aria-label="Start from a fold found by a branch cell"
-              className="w-64"
               value=""
               onChange={(e) => {
                 const f = folds[Number(e.target.value)];
@@ -182,6 +182,7 @@ export function FoldMapForm(p: AnalysisFormProps & { cells: readonly DocumentCel
                 </option>
               ))}
             </SmallSelect>
+            </div>
           )}
         </div>
         <div className="flex flex-wrap gap-4">
