@@ -5,7 +5,12 @@ export const controlClass =
   'block rounded-md border border-rule-strong bg-surface px-3 text-ink placeholder:text-ink-muted aria-[invalid=true]:border-unstable aria-[invalid=true]:ring-1 aria-[invalid=true]:ring-unstable disabled:opacity-60';
 
 export function Input({ className, ...rest }: InputHTMLAttributes<HTMLInputElement>) {
-  return <input className={cn(controlClass, 'h-10 w-full read-only:bg-sunken read-only:text-ink-muted', className)} {...rest} />;
+  return (
+    <input
+      className={cn(controlClass, 'h-10 w-full read-only:bg-sunken read-only:text-ink-muted', className)}
+      {...rest}
+    />
+  );
 }
 
 export function Textarea({ className, ...rest }: TextareaHTMLAttributes<HTMLTextAreaElement>) {
