@@ -74,3 +74,32 @@ describe('fold-curve: a two-variable fold in two parameters', () => {
     expect(r.curve.stopReason).toBe('start-not-converged');
   });
 });
+
+describe('fold-curve: Bogdanov–Takens and zero-Hopf points', () => {
+  it('locates the Bogdanov–Takens point of its normal form', () => {
+    // Kuznetsov, Elements of Applied Bifurcation Theory, 3rd ed., §8.4: η1' = η2,
+    // η2' = β1 + β2η1 + η1² − η1η2. Equilibria η1² + β2η1 + β1 = 0, so the fold curve is
+    // β1 = β2²/4 at η1 = −β2/2 (closed form); J = [[0, 1], [0, −η1]] there, whose second
+    // eigenvalue −η1 = β2/2 vanishes at the Bogdanov–Takens point β = 0.
+    const model = { variables: [{ name: 'u', rhs: 'v' }, { name: 'v', rhs: 'b1 + b2*u + u^2 - u*v' }], parameters: [{ name: 'b1', value: 0.25 }, { name: 'b2', value: -1 }] };
+    const r = analyze({ model, task: { kind: 'fold-curve', parameters: ['b1', 'b2'], start: { parameters: {}, state: { u: 0.5, v: 0 } }, bounds: { b1: [-1, 1], b2: [-1.5, 1] } } });
+    expect(foldCurveResultSchema.safeParse(r).success).toBe(true);
+    for (const p of r.curve.points) expectClose(p.parameters.b1, p.parameters.b2 ** 2 / 4, 1e-9, 1e-12);
+    expect(r.curve.events.map((e) => e.kind)).toEqual(['bogdanov-takens']);
+    expectClose(r.curve.events[0].parameters.b2, 0, 0, 1e-8);
+    expectClose(r.curve.events[0].parameters.b1, 0, 0, 1e-12);
+  });
+
+  it('locates a zero-Hopf point where a complex pair crosses on the fold curve', () => {
+    // A fold in z (ż = κ − z², fold curve κ = 0 at z = 0; Strogatz §3.1) and a Hopf pair μ ± i in
+    // (x, y): on the fold curve the pair crosses the imaginary axis at μ = 0 (closed form).
+    const model = {
+      variables: [{ name: 'x', rhs: 'mu*x - y + x*z' }, { name: 'y', rhs: 'x + mu*y' }, { name: 'z', rhs: 'kappa - z^2 + x^2' }],
+      parameters: [{ name: 'kappa', value: 0 }, { name: 'mu', value: -0.5 }],
+    };
+    const r = analyze({ model, task: { kind: 'fold-curve', parameters: ['kappa', 'mu'], start: { parameters: {}, state: { z: 0.01 } }, bounds: { kappa: [-1, 1], mu: [-1, 1] } } });
+    for (const p of r.curve.points) expectClose(p.parameters.kappa, 0, 0, 1e-10);
+    expect(r.curve.events.map((e) => e.kind)).toEqual(['zero-hopf']);
+    expectClose(r.curve.events[0].parameters.mu, 0, 0, 1e-9);
+  });
+});
