@@ -1,8 +1,9 @@
 import { Router, type Request } from 'express';
+import { rateLimit } from 'express-rate-limit';
 import { approveReviewSchema, markSeenSchema, requestChangesSchema, submitReviewSchema } from '@shared/api/reviews.ts';
 import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
 import type { RouteDeps } from '@server/app-deps.ts';
-import { NotFoundError } from '@server/errors/index.ts';
+import { NotFoundError, RateLimitedError } from '@server/errors/index.ts';
 import { currentUser, requireUser } from '@server/middlewares/authenticate.ts';
 import { presentQueueItem, presentReviewDetail } from '@server/presenters/review.presenter.ts';
 import { loadEntry } from '@server/services/entries/load-entry.ts';
@@ -17,6 +18,9 @@ import { submitReview } from '@server/services/reviews/submit-review.ts';
 import { validate } from './pipeline.ts';
 
 type Params = { notebookId: string; entryId: string };
+
+/** Wrong signing passwords allowed per person in 15 minutes before approval is refused for a while (429). */
+export const SIGNATURE_FAILURES_PER_WINDOW = 10;
 const params = (req: Request) => req.params as Params;
 
 /**
@@ -77,7 +81,19 @@ export function reviewsRoutes(deps: RouteDeps): Router {
     res.json(await detail(req, review));
   });
 
-  router.post('/approve', async (req, res) => {
+  // Counts only wrong passwords (401), per signed-in person, so the password cannot be guessed through signing.
+  const signatureFailures = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: SIGNATURE_FAILURES_PER_WINDOW,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `signature|${currentUser(req).id}`,
+    requestWasSuccessful: (_req, res) => res.statusCode !== 401,
+    skipSuccessfulRequests: true,
+    handler: (_req, _res, next) => next(new RateLimitedError()),
+  });
+
+  router.post('/approve', signatureFailures, async (req, res) => {
     const body = validate(approveReviewSchema, req.body);
     const { review } = await approveReview(
       { dataSource, pool: getAnalysisPool(), publicUrl },

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { revisionSchema, type EntryDetail, type Revision, type RunCellResponse } from '@shared/api/entries.ts';
 import { reproducibilityReportSchema, reviewDetailSchema } from '@shared/api/reviews.ts';
 import type { DocumentJson } from '@shared/editor/document.ts';
+import { SIGNATURE_FAILURES_PER_WINDOW } from '@server/routes/reviews.routes.ts';
 import { DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import { closeLogServer, demoNotebookId, logServer, signIn, startLogServer, type Client } from './entries-support.ts';
 
@@ -126,5 +127,19 @@ describe('signatures and the reproducibility check', () => {
     expect(sig.reproducibility.differences).toEqual(report.differences);
     const [event] = (await db.query(`SELECT summary FROM audit_event WHERE action = 'review.approved' AND summary->>'entryId' = $1`, [entryId])) as { summary: Record<string, unknown> }[];
     expect(event.summary).toMatchObject({ reproducibility: 'differs', printedName: 'Dr. Ines Halvorsen', meaning: 'approved', contentHash: rev.contentHash });
+  });
+  // Last in the file: afterwards this PI may not sign for a while.
+  it('stops accepting signing passwords after repeated wrong ones (429), each wrong one audited', async () => {
+    const { entryId, rev } = await submittedWithRun('Guessing');
+    for (let i = 0; i < SIGNATURE_FAILURES_PER_WINDOW; i += 1) {
+      expect((await ines.post(`${entryUrl(entryId)}/review/approve`, { revisionId: rev.id, password: `guess-${i}` })).status).toBe(401);
+    }
+    const limited = await ines.post(`${entryUrl(entryId)}/review/approve`, { revisionId: rev.id, password: DEMO_PEOPLE.pi.password });
+    expect(limited.status).toBe(429);
+    expect(limited.body.error.code).toBe('rate_limited');
+    const [{ n }] = (await logServer().dataSource.query(
+      `SELECT count(*)::int AS n FROM audit_event WHERE action = 'review.signature_failed' AND summary->>'entryId' = $1`, [entryId],
+    )) as { n: number }[];
+    expect(n).toBe(SIGNATURE_FAILURES_PER_WINDOW);
   });
 });

@@ -3,11 +3,13 @@ import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { revisionSchema, type EntryDetail, type Revision, type RunCellResponse } from '@shared/api/entries.ts';
+import type { DocumentJson } from '@shared/editor/document.ts';
 import { reviewDetailSchema, reviewQueueSchema, type ReviewDetail } from '@shared/api/reviews.ts';
 import { startMailOutboxWorker, type MailOutboxWorker } from '@server/jobs/mail-outbox-worker.ts';
 import { DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import {
   SADDLE_BRANCH_CELL_ID,
+  SADDLE_MODEL_CELL_ID,
   auditActionsFor,
   closeLogServer,
   demoNotebookId,
@@ -20,6 +22,16 @@ import {
   startLogServer,
   type Client,
 } from './entries-support.ts';
+
+/** The saddle-node branch over a range of its own, so this file's runs are not stored runs other files expect to compute afresh. */
+const reviewTask = { ...saddleBranchTask, bounds: { min: -1, max: 1.5 } };
+function reviewDoc(note?: string): DocumentJson {
+  const doc = saddleDoc(note);
+  const content = (doc.content ?? []).map((node) =>
+    node.attrs?.id === SADDLE_BRANCH_CELL_ID ? { ...node, attrs: { ...node.attrs, input: { modelCellId: SADDLE_MODEL_CELL_ID, task: reviewTask } } } : node,
+  );
+  return { ...doc, content };
+}
 
 /**
  * The review flow through the API: submit, follow new revisions, mark seen, request changes,
@@ -203,9 +215,9 @@ describe('review API', () => {
   it('approves with a signature: printed name, time, meaning, content hash, rerun; shown with the revision; author mailed', async () => {
     // A revision with a computed branch of x' = μ − x², so the rerun has something to reproduce.
     const entry = await newEntry(kofi, tank, 'Saddle-node check');
-    const run = (await kofi.post(`${entryUrl(tank, entry.entry.id)}/cells/${SADDLE_BRANCH_CELL_ID}/run`, { model: saddleModel, task: saddleBranchTask })).body as RunCellResponse;
+    const run = (await kofi.post(`${entryUrl(tank, entry.entry.id)}/cells/${SADDLE_BRANCH_CELL_ID}/run`, { model: saddleModel, task: reviewTask })).body as RunCellResponse;
     expect(run.status).toBe('ok');
-    const rev = await record(kofi, tank, entry.entry.id, entry.head.id, '', { document: saddleDoc(), outputs: { [SADDLE_BRANCH_CELL_ID]: run } });
+    const rev = await record(kofi, tank, entry.entry.id, entry.head.id, '', { document: reviewDoc(), outputs: { [SADDLE_BRANCH_CELL_ID]: run } });
     expect((await kofi.post(reviewUrl(tank, entry.entry.id), { revisionId: rev.id, note: 'Fold at μ = 0' })).status).toBe(201);
 
     const res = await ines.post(reviewUrl(tank, entry.entry.id, 'approve'), { revisionId: rev.id, password: DEMO_PEOPLE.pi.password });
@@ -234,7 +246,7 @@ describe('review API', () => {
     expect((await ines.post(reviewUrl(tank, entry.entry.id, 'approve'), { revisionId: rev.id, password: DEMO_PEOPLE.pi.password })).status).toBe(409);
 
     // Editing the approved entry starts a new draft revision; the approved one keeps its signature.
-    const next = await record(kofi, tank, entry.entry.id, rev.id, '', { document: saddleDoc('Now with a note on stability.'), outputs: { [SADDLE_BRANCH_CELL_ID]: run } });
+    const next = await record(kofi, tank, entry.entry.id, rev.id, '', { document: reviewDoc('Now with a note on stability.'), outputs: { [SADDLE_BRANCH_CELL_ID]: run } });
     expect(next.signatures).toEqual([]);
     expect(await entryStatus(tank, entry.entry.id)).toBe('draft');
     expect(revisionSchema.parse((await kofi.get(`${entryUrl(tank, entry.entry.id)}/revisions/${rev.id}`)).body).signatures).toEqual([sig]);
