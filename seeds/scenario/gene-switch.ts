@@ -1,7 +1,8 @@
 import type { ModelCellInput } from '@shared/cells/inputs.ts';
 import type { DocumentCell } from '@shared/editor/document.ts';
-import { bullets, cellNode, displayMath, heading, italic, math, newCellId, num, paragraph } from './doc.ts';
+import { bullets, displayMath, heading, italic, math, newCellId, num, paragraph } from './doc.ts';
 import { countWord, cuspsOf, describePoint, equilibriaBy, foldAt, jumpOf, twoFolds } from './quote.ts';
+import { branchCell, equilibriaCell, foldMapCell, modelCell, place, trajectoryCell } from './cells.ts';
 import type { CellResults, ScenarioEntry, ScenarioNotebook } from './types.ts';
 
 /**
@@ -25,27 +26,16 @@ const switchModel = (alpha1: number, alpha2: number): ModelCellInput => ({
   definitions: [],
 });
 
-const modelCell = (id: string, alpha1: number, alpha2: number): DocumentCell => ({
-  id,
-  kind: 'model',
-  input: switchModel(alpha1, alpha2) as Record<string, unknown>,
-});
-const place = (cell: DocumentCell) => cellNode(cell.id, cell.kind, cell.input);
+const switchCell = (id: string, alpha1: number, alpha2: number): DocumentCell =>
+  modelCell(id, switchModel(alpha1, alpha2));
 const EQUATIONS = String.raw`\dot u = \frac{\alpha_1}{1 + v^{\beta}} - u, \qquad \dot v = \frac{\alpha_2}{1 + u^{\gamma}} - v`;
 
 function equilibriaEntry(): ScenarioEntry {
   const model = newCellId();
   const equilibria = newCellId();
   const cellsAt = (alpha1: number, alpha2: number): DocumentCell[] => [
-    modelCell(model, alpha1, alpha2),
-    {
-      id: equilibria,
-      kind: 'equilibria',
-      input: {
-        modelCellId: model,
-        task: { kind: 'equilibria', box: { u: [0, 10], v: [0, 10] }, starts: 64 },
-      },
-    },
+    switchCell(model, alpha1, alpha2),
+    equilibriaCell(equilibria, model, { u: [0, 10], v: [0, 10] }),
   ];
   const body = (alpha1: number, alpha2: number, closing: boolean) => (r: CellResults) => {
     const points = equilibriaBy(r.equilibria(equilibria), 'u');
@@ -121,47 +111,25 @@ function branchEntry(): ScenarioEntry {
   const foldMap = newCellId();
   const trajectory = newCellId();
   const pushedModel = newCellId();
-  const branchCell: DocumentCell = {
-    id: branch,
-    kind: 'branch',
-    input: {
-      modelCellId: model,
-      task: {
-        kind: 'continuation',
-        parameter: 'alpha1',
-        start: { u: 0.2, v: 6 },
-        bounds: { min: 0, max: 15 },
-        maxPoints: 400,
-      },
-      view: { yVariable: 'u' },
-    },
-  };
-  const foldMapCell: DocumentCell = {
-    id: foldMap,
-    kind: 'fold-map',
-    input: {
-      modelCellId: model,
-      task: {
-        kind: 'fold-curve',
-        parameters: ['alpha1', 'alpha2'],
-        start: { parameters: { alpha1: 12.3, alpha2: 6 }, state: { u: 0.6, v: 4.4 } },
-        bounds: { alpha1: [0, 15], alpha2: [0, 15] },
-        maxPoints: 600,
-      },
-    },
-  };
-  const trajectoryCell: DocumentCell = {
-    id: trajectory,
-    kind: 'trajectory',
-    input: {
-      modelCellId: pushedModel,
-      task: { kind: 'simulate', initial: { u: 0.2, v: 6 }, time: { start: 0, end: 80, samples: 401 } },
-      view: { phaseX: 'u', phaseY: 'v' },
-    },
-  };
-  const draft = [modelCell(model, 6, 6), branchCell];
-  const full = [modelCell(model, 6, 6), branchCell, foldMapCell];
-  const pushed = [...full, modelCell(pushedModel, 13, 6), trajectoryCell];
+  const branchOfAlpha1 = branchCell(branch, model, {
+    parameter: 'alpha1',
+    start: { u: 0.2, v: 6 },
+    bounds: [0, 15],
+    yVariable: 'u',
+  });
+  const bistableMap = foldMapCell(foldMap, model, {
+    parameters: ['alpha1', 'alpha2'],
+    start: { parameters: { alpha1: 12.3, alpha2: 6 }, state: { u: 0.6, v: 4.4 } },
+    bounds: { alpha1: [0, 15], alpha2: [0, 15] },
+  });
+  const switchOn = trajectoryCell(trajectory, pushedModel, {
+    initial: { u: 0.2, v: 6 },
+    end: 80,
+    phase: ['u', 'v'],
+  });
+  const draft = [switchCell(model, 6, 6), branchOfAlpha1];
+  const full = [switchCell(model, 6, 6), branchOfAlpha1, bistableMap];
+  const pushed = [...full, switchCell(pushedModel, 13, 6), switchOn];
   const folds = (r: CellResults) => {
     const [low, high] = twoFolds(r.branch(branch), 'gene branch');
     return [

@@ -98,57 +98,71 @@ export async function seedReviewsAndComments(
   // Pending in the PI's queue: the fold map.
   await submit('tank-fold-map', 'Fold map in (Da, B) with the cusps, and the check below them at B = 7.');
 
+  /** A comment by `who` on the entry's newest revision, on a block (found by its words) or on the first cell of a kind. */
+  const comment = (
+    who: DemoPersonKey,
+    seeded: SeededEntry,
+    on: { words: string } | { cellKind: string },
+    body: string,
+    parentId?: string,
+  ) => {
+    const place =
+      'words' in on
+        ? { blockIndex: blockWith(seeded, on.words) }
+        : { cellId: cellOfKind(seeded, on.cellKind) };
+    return as(deps, who, seeded, (ctx, entry) =>
+      createComment(ctx, {
+        entry,
+        publicUrl,
+        anchor: { revisionId: seeded.head.id, ...place },
+        body,
+        ...(parentId ? { parentId } : {}),
+      }),
+    );
+  };
+
   // A thread on the lake states, answered and resolved.
   const lakeStates = entryOf(entries, 'lake-states');
-  const question = await as(deps, 'pi', lakeStates, (ctx, entry) =>
-    createComment(ctx, {
-      entry,
-      publicUrl,
-      anchor: { revisionId: lakeStates.head.id, blockIndex: blockWith(lakeStates, 'Our values') },
-      body: 'Where does the loss rate b = 0.8 come from? Please say in the entry that it is our own estimate, not a measured value.',
-    }),
+  const values = { words: 'Our values' };
+  const question = await comment(
+    'pi',
+    lakeStates,
+    values,
+    'Where does the loss rate b = 0.8 come from? Please say in the entry that it is our own estimate, not a measured value.',
   );
-  await as(deps, 'researcher2', lakeStates, (ctx, entry) =>
-    createComment(ctx, {
-      entry,
-      publicUrl,
-      parentId: question.id,
-      anchor: { revisionId: lakeStates.head.id, blockIndex: blockWith(lakeStates, 'Our values') },
-      body: '@Ines Halvorsen It is our own round figure for flushing plus burial; the paragraph in the latest revision says so.',
-    }),
+  await comment(
+    'researcher2',
+    lakeStates,
+    values,
+    '@Ines Halvorsen It is our own round figure for flushing plus burial; the paragraph in the latest revision says so.',
+    question.id,
   );
   await as(deps, 'researcher2', lakeStates, (ctx, entry) =>
     setThreadResolved(ctx, { entry, commentId: question.id, resolved: true }),
   );
 
   // An open question from the reader on the lake trajectory, mentioning the author.
-  const lakeBranch = entryOf(entries, 'lake-branch');
-  await as(deps, 'reader', lakeBranch, (ctx, entry) =>
-    createComment(ctx, {
-      entry,
-      publicUrl,
-      anchor: { revisionId: lakeBranch.head.id, cellId: cellOfKind(lakeBranch, 'trajectory') },
-      body: '@Mira Castellanos How long would the switch to the turbid state take in years, if one time unit is a season?',
-    }),
+  await comment(
+    'reader',
+    entryOf(entries, 'lake-branch'),
+    { cellKind: 'trajectory' },
+    '@Mira Castellanos How long would the switch to the turbid state take in years, if one time unit is a season?',
   );
 
   // A discussion on the gene switch fold map, still open.
   const gene = entryOf(entries, 'gene-branch');
-  const remark = await as(deps, 'pi', gene, (ctx, entry) =>
-    createComment(ctx, {
-      entry,
-      publicUrl,
-      anchor: { revisionId: gene.head.id, cellId: cellOfKind(gene, 'fold-map') },
-      body: 'The cusp sits where the two synthesis rates are equal. Is that forced by the symmetry of the exponents?',
-    }),
+  const onMap = { cellKind: 'fold-map' };
+  const remark = await comment(
+    'pi',
+    gene,
+    onMap,
+    'The cusp sits where the two synthesis rates are equal. Is that forced by the symmetry of the exponents?',
   );
-  await as(deps, 'researcher', gene, (ctx, entry) =>
-    createComment(ctx, {
-      entry,
-      publicUrl,
-      parentId: remark.id,
-      anchor: { revisionId: gene.head.id, cellId: cellOfKind(gene, 'fold-map') },
-      body: 'Yes, with equal exponents the model is symmetric under swapping u and v, so the cusp lies on the diagonal. I will try unequal exponents next.',
-    }),
+  await comment(
+    'researcher',
+    gene,
+    onMap,
+    'Yes, with equal exponents the model is symmetric under swapping u and v, so the cusp lies on the diagonal. I will try unequal exponents next.',
+    remark.id,
   );
 }

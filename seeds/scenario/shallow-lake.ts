@@ -1,18 +1,8 @@
 import type { ModelCellInput } from '@shared/cells/inputs.ts';
 import type { DocumentCell } from '@shared/editor/document.ts';
-import {
-  bold,
-  bullets,
-  cellNode,
-  displayMath,
-  heading,
-  math,
-  newCellId,
-  num,
-  paragraph,
-  steps,
-} from './doc.ts';
+import { bold, bullets, displayMath, heading, math, newCellId, num, paragraph, steps } from './doc.ts';
 import { countWord, cuspsOf, describePoint, equilibriaBy, foldAt, jumpOf, twoFolds } from './quote.ts';
+import { branchCell, equilibriaCell, foldMapCell, modelCell, place, trajectoryCell } from './cells.ts';
 import type { CellResults, ScenarioEntry, ScenarioNotebook } from './types.ts';
 
 /**
@@ -33,12 +23,7 @@ const lakeModel = (a: number): ModelCellInput => ({
   definitions: [],
 });
 
-const modelCell = (id: string, a: number): DocumentCell => ({
-  id,
-  kind: 'model',
-  input: lakeModel(a) as Record<string, unknown>,
-});
-const place = (cell: DocumentCell) => cellNode(cell.id, cell.kind, cell.input);
+const lakeCell = (id: string, a: number): DocumentCell => modelCell(id, lakeModel(a));
 const EQUATION = String.raw`\dot x = a - b\,x + r\,\frac{x^q}{1 + x^q}`;
 const VALUES = paragraph(
   'Our values: ',
@@ -54,12 +39,8 @@ function statesEntry(): ScenarioEntry {
   const model = newCellId();
   const equilibria = newCellId();
   const cellsAt = (a: number): DocumentCell[] => [
-    modelCell(model, a),
-    {
-      id: equilibria,
-      kind: 'equilibria',
-      input: { modelCellId: model, task: { kind: 'equilibria', box: { x: [0, 4] }, starts: 64 } },
-    },
+    lakeCell(model, a),
+    equilibriaCell(equilibria, model, { x: [0, 4] }),
   ];
   const body = (a: number, withReading: boolean) => (r: CellResults) => {
     const points = equilibriaBy(r.equilibria(equilibria), 'x');
@@ -126,31 +107,15 @@ function branchEntry(): ScenarioEntry {
   const model = newCellId();
   const branch = newCellId();
   const trajectory = newCellId();
-  const branchCell: DocumentCell = {
-    id: branch,
-    kind: 'branch',
-    input: {
-      modelCellId: model,
-      task: {
-        kind: 'continuation',
-        parameter: 'a',
-        start: { x: 0.3 },
-        bounds: { min: 0, max: 1 },
-        maxPoints: 400,
-      },
-      view: { yVariable: 'x' },
-    },
-  };
-  const trajectoryCell: DocumentCell = {
-    id: trajectory,
-    kind: 'trajectory',
-    input: {
-      modelCellId: model,
-      task: { kind: 'simulate', initial: { x: 0.6 }, time: { start: 0, end: 40, samples: 401 } },
-    },
-  };
-  const draft = [modelCell(model, 0.3), branchCell];
-  const full = [modelCell(model, 0.55), branchCell, trajectoryCell];
+  const branchOfA = branchCell(branch, model, {
+    parameter: 'a',
+    start: { x: 0.3 },
+    bounds: [0, 1],
+    yVariable: 'x',
+  });
+  const clearStart = trajectoryCell(trajectory, model, { initial: { x: 0.6 }, end: 40 });
+  const draft = [lakeCell(model, 0.3), branchOfA];
+  const full = [lakeCell(model, 0.55), branchOfA, clearStart];
   const folds = (r: CellResults) => {
     const [recovery, loss] = twoFolds(r.branch(branch), 'lake branch');
     return [
@@ -203,7 +168,7 @@ function branchEntry(): ScenarioEntry {
             paragraph(
               `With the loading at a = 0.55, just above the clear-state fold, a lake that starts clear (x = 0.6) drifts slowly and then turns turbid: x passes half way at t ≈ ${num(jump.halfwayAt, 2)} and settles at x = ${num(jump.to)}.`,
             ),
-            place(trajectoryCell),
+            place(clearStart),
             heading(2, 'Reading'),
             paragraph(
               `To bring the lake back, the loading must fall below ${num(recovery.parameter)}, a cut of ${num((100 * (loss.parameter - recovery.parameter)) / loss.parameter, 2)} % from the loading at which it was lost: restoring costs far more than preventing.`,
@@ -219,21 +184,12 @@ function foldMapEntry(): ScenarioEntry {
   const model = newCellId();
   const foldMap = newCellId();
   const cells: DocumentCell[] = [
-    modelCell(model, 0.5),
-    {
-      id: foldMap,
-      kind: 'fold-map',
-      input: {
-        modelCellId: model,
-        task: {
-          kind: 'fold-curve',
-          parameters: ['a', 'b'],
-          start: { parameters: { a: 0.51, b: 0.8 }, state: { x: 0.74 } },
-          bounds: { a: [-0.5, 2], b: [0.3, 2.5] },
-          maxPoints: 600,
-        },
-      },
-    },
+    lakeCell(model, 0.5),
+    foldMapCell(foldMap, model, {
+      parameters: ['a', 'b'],
+      start: { parameters: { a: 0.51, b: 0.8 }, state: { x: 0.74 } },
+      bounds: { a: [-0.5, 2], b: [0.3, 2.5] },
+    }),
   ];
   const mapBody = mapBodyOf(cells, foldMap);
   return {

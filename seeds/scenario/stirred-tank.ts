@@ -3,7 +3,6 @@ import type { ModelCellInput } from '@shared/cells/inputs.ts';
 import {
   bold,
   bullets,
-  cellNode,
   displayMath,
   heading,
   italic,
@@ -23,6 +22,7 @@ import {
   jumpOf,
   twoFolds,
 } from './quote.ts';
+import { branchCell, equilibriaCell, foldMapCell, modelCell, place, trajectoryCell } from './cells.ts';
 import type { CellResults, ScenarioEntry, ScenarioNotebook } from './types.ts';
 
 /**
@@ -56,12 +56,7 @@ const tankModel = ({ Da, B }: TankValues): ModelCellInput => ({
   definitions: [{ name: 'rate', expression: 'Da*(1 - x1)*exp(x2/(1 + x2/gamma))' }],
 });
 
-const modelCell = (id: string, values: TankValues): DocumentCell => ({
-  id,
-  kind: 'model',
-  input: tankModel(values) as Record<string, unknown>,
-});
-const place = (cell: DocumentCell) => cellNode(cell.id, cell.kind, cell.input);
+const tankCell = (id: string, values: TankValues): DocumentCell => modelCell(id, tankModel(values));
 
 const EQUATIONS = String.raw`\begin{aligned} \dot x_1 &= -x_1 + \mathrm{Da}\,(1 - x_1)\, e^{x_2/(1 + x_2/\gamma)} \\ \dot x_2 &= -x_2 + B\,\mathrm{Da}\,(1 - x_1)\, e^{x_2/(1 + x_2/\gamma)} - \beta\,(x_2 - x_{2c}) \end{aligned}`;
 const VARIABLES = ['x1', 'x2'];
@@ -74,15 +69,8 @@ function steadyStatesEntry(): ScenarioEntry {
   const model = newCellId();
   const equilibria = newCellId();
   const cellsAt = (Da: number): DocumentCell[] => [
-    modelCell(model, { Da, B: 9 }),
-    {
-      id: equilibria,
-      kind: 'equilibria',
-      input: {
-        modelCellId: model,
-        task: { kind: 'equilibria', box: { x1: [0, 1], x2: [0, 12] }, starts: 64 },
-      },
-    },
+    tankCell(model, { Da, B: 9 }),
+    equilibriaCell(equilibria, model, { x1: [0, 1], x2: [0, 12] }),
   ];
   const setUp = [
     heading(2, 'Aim'),
@@ -176,30 +164,15 @@ function branchEntry(): ScenarioEntry {
   const model = newCellId();
   const branch = newCellId();
   const trajectory = newCellId();
-  const branchCell = (max: number, start: { x1: number; x2: number }): DocumentCell => ({
-    id: branch,
-    kind: 'branch',
-    input: {
-      modelCellId: model,
-      task: { kind: 'continuation', parameter: 'Da', start, bounds: { min: 0, max }, maxPoints: 400 },
-      view: { yVariable: 'x2' },
-    },
+  const branchTo = (max: number, start: { x1: number; x2: number }): DocumentCell =>
+    branchCell(branch, model, { parameter: 'Da', start, bounds: [0, max], yVariable: 'x2' });
+  const jumpCell = trajectoryCell(trajectory, model, {
+    initial: { x1: 0.1, x2: 0.5 },
+    end: 40,
+    phase: ['x1', 'x2'],
   });
-  const trajectoryCell: DocumentCell = {
-    id: trajectory,
-    kind: 'trajectory',
-    input: {
-      modelCellId: model,
-      task: { kind: 'simulate', initial: { x1: 0.1, x2: 0.5 }, time: { start: 0, end: 40, samples: 401 } },
-      view: { phaseX: 'x1', phaseY: 'x2' },
-    },
-  };
-  const draftCells = [modelCell(model, { Da: 0.075, B: 9 }), branchCell(0.15, { x1: 0.1, x2: 0.5 })];
-  const fullCells = [
-    modelCell(model, { Da: 0.085, B: 9 }),
-    branchCell(0.3, { x1: 0.7, x2: 4.2 }),
-    trajectoryCell,
-  ];
+  const draftCells = [tankCell(model, { Da: 0.075, B: 9 }), branchTo(0.15, { x1: 0.1, x2: 0.5 })];
+  const fullCells = [tankCell(model, { Da: 0.085, B: 9 }), branchTo(0.3, { x1: 0.7, x2: 4.2 }), jumpCell];
   const intro = [
     heading(2, 'Aim'),
     paragraph(
@@ -255,7 +228,7 @@ function branchEntry(): ScenarioEntry {
             paragraph(
               `With Da = 0.085, just past ignition, the tank started cold (x1 = 0.1, x2 = 0.5) lingers near the vanished cold state and then ignites: x2 passes half way to its final value at t ≈ ${num(jump.halfwayAt, 2)} and settles at x2 = ${num(jump.to)}.`,
             ),
-            place(trajectoryCell),
+            place(jumpCell),
           ];
         },
       },
@@ -274,7 +247,7 @@ function branchEntry(): ScenarioEntry {
             paragraph(
               `With Da = 0.085 the cold start ignites: x2 passes half way at t ≈ ${num(jump.halfwayAt, 2)} and settles at x2 = ${num(jump.to)}.`,
             ),
-            place(trajectoryCell),
+            place(jumpCell),
             heading(2, 'Interpretation'),
             paragraph(
               'Between the two folds the tank is bistable, and which state it runs in depends on its history: the hysteresis window is ',
@@ -303,40 +276,22 @@ function foldMapEntry(): ScenarioEntry {
   const lowHeatModel = newCellId();
   const lowHeatBranch = newCellId();
   const cells: DocumentCell[] = [
-    modelCell(model, { Da: 0.08, B: 9 }),
-    {
-      id: foldMap,
-      kind: 'fold-map',
-      input: {
-        modelCellId: model,
-        task: {
-          kind: 'fold-curve',
-          parameters: ['Da', 'B'],
-          start: { parameters: { Da: 0.083, B: 9 }, state: { x1: 0.15, x2: 1.6 } },
-          bounds: { Da: [0, 0.3], B: [3, 16] },
-          maxPoints: 600,
-        },
-      },
-    },
+    tankCell(model, { Da: 0.08, B: 9 }),
+    foldMapCell(foldMap, model, {
+      parameters: ['Da', 'B'],
+      start: { parameters: { Da: 0.083, B: 9 }, state: { x1: 0.15, x2: 1.6 } },
+      bounds: { Da: [0, 0.3], B: [3, 16] },
+    }),
   ];
   const withLowHeat: DocumentCell[] = [
     ...cells,
-    modelCell(lowHeatModel, { Da: 0.08, B: 7 }),
-    {
-      id: lowHeatBranch,
-      kind: 'branch',
-      input: {
-        modelCellId: lowHeatModel,
-        task: {
-          kind: 'continuation',
-          parameter: 'Da',
-          start: { x1: 0.1, x2: 0.5 },
-          bounds: { min: 0, max: 0.3 },
-          maxPoints: 400,
-        },
-        view: { yVariable: 'x2' },
-      },
-    },
+    tankCell(lowHeatModel, { Da: 0.08, B: 7 }),
+    branchCell(lowHeatBranch, lowHeatModel, {
+      parameter: 'Da',
+      start: { x1: 0.1, x2: 0.5 },
+      bounds: [0, 0.3],
+      yVariable: 'x2',
+    }),
   ];
   const mapText = (r: CellResults) => {
     const cusps = cuspsOf(r.foldMap(foldMap), ['Da', 'B']);
