@@ -40,7 +40,10 @@ export function hashPayload(engineVersion: string, request: { model: unknown; ta
 }
 
 /** sha256 (hex) of the canonical payload, with the Web Crypto API (browsers and Node ≥ 20). */
-export async function inputHash(engineVersion: string, request: { model: unknown; task: unknown }): Promise<string> {
+export async function inputHash(
+  engineVersion: string,
+  request: { model: unknown; task: unknown },
+): Promise<string> {
   const bytes = new TextEncoder().encode(hashPayload(engineVersion, request));
   const digest = await globalThis.crypto.subtle.digest('SHA-256', bytes);
   return Array.from(new Uint8Array(digest), (b) => b.toString(16).padStart(2, '0')).join('');

@@ -33,7 +33,9 @@ export const modelCellVariableSchema = z.object({
 });
 export const modelCellParameterSchema = z.object({
   name: identifierSchema,
-  value: z.number({ message: 'Enter a number' }).refine(Number.isFinite, { message: 'Enter a finite number' }),
+  value: z
+    .number({ message: 'Enter a number' })
+    .refine(Number.isFinite, { message: 'Enter a finite number' }),
   unit: unitSchema.optional(),
   note: noteSchema.optional(),
 });
@@ -44,7 +46,11 @@ export const modelCellDefinitionSchema = z.object({
 
 export const modelCellInputSchema = z.object({
   /** How analysis cells refer to this model in lists ("Stirred tank, first order"). */
-  name: z.string().trim().min(1, { message: 'Give the model a name' }).max(120, { message: 'At most 120 characters' }),
+  name: z
+    .string()
+    .trim()
+    .min(1, { message: 'Give the model a name' })
+    .max(120, { message: 'At most 120 characters' }),
   variables: z.array(modelCellVariableSchema).min(1, { message: 'A model needs at least one variable' }),
   parameters: z.array(modelCellParameterSchema).default([]),
   definitions: z.array(modelCellDefinitionSchema).default([]),
@@ -75,9 +81,7 @@ export const TASK_KIND_BY_CELL = {
 } as const satisfies Record<AnalysisCellKind, string>;
 
 /** How the branch diagram is drawn: which variable on the vertical axis, or the norm of the state. */
-export const branchViewSchema = z
-  .object({ yVariable: z.string().max(64).optional() })
-  .default({});
+export const branchViewSchema = z.object({ yVariable: z.string().max(64).optional() }).default({});
 export const trajectoryViewSchema = z
   .object({ phaseX: z.string().max(64).optional(), phaseY: z.string().max(64).optional() })
   .default({});
@@ -154,8 +158,7 @@ export function problemsFromZod(error: z.ZodError, prefix = ''): FieldProblem[] 
 }
 
 export type CellInputCheck<K extends CellKind> =
-  | { ok: true; value: ParsedCellInput<K> }
-  | { ok: false; problems: FieldProblem[] };
+  { ok: true; value: ParsedCellInput<K> } | { ok: false; problems: FieldProblem[] };
 
 /** Check a cell's input against its kind's schema; problems name the field, relative to the input. */
 export function checkCellInput<K extends CellKind>(kind: K, input: unknown): CellInputCheck<K> {

@@ -64,7 +64,10 @@ export interface ResultByCellKind {
 }
 
 /** Narrow an output's result to the type the cell kind expects (by shape), or null. */
-export function resultFor<K extends AnalysisCellKind>(kind: K, output: CellOutput | undefined): ResultByCellKind[K] | null {
+export function resultFor<K extends AnalysisCellKind>(
+  kind: K,
+  output: CellOutput | undefined,
+): ResultByCellKind[K] | null {
   const r = output?.status === 'ok' ? output.result : undefined;
   if (!r) return null;
   const ok =

@@ -18,8 +18,7 @@ export interface ResolvedRequest {
 }
 
 export type Resolution =
-  | { ok: true; request: ResolvedRequest; modelCell: DocumentCell }
-  | { ok: false; problems: FieldProblem[] };
+  { ok: true; request: ResolvedRequest; modelCell: DocumentCell } | { ok: false; problems: FieldProblem[] };
 
 /**
  * Resolve an analysis cell's engine request from the document: find the model cell named by
@@ -50,21 +49,28 @@ export function resolveFromCells(cells: readonly DocumentCell[], cell: DocumentC
       problems: [
         {
           path: 'modelCellId',
-          message: typeof modelCellId === 'string' && modelCellId ? 'The chosen model cell is no longer in this entry' : 'Choose a model cell',
+          message:
+            typeof modelCellId === 'string' && modelCellId
+              ? 'The chosen model cell is no longer in this entry'
+              : 'Choose a model cell',
         },
       ],
     };
   }
   const problems: FieldProblem[] = [];
   const model = checkCellInput('model', modelCell.input);
-  if (!model.ok) problems.push(...model.problems.map((p) => ({ ...p, path: p.path ? `model.${p.path}` : 'model' })));
+  if (!model.ok)
+    problems.push(...model.problems.map((p) => ({ ...p, path: p.path ? `model.${p.path}` : 'model' })));
   const own = checkCellInput(cell.kind, cell.input);
   if (!own.ok) problems.push(...own.problems);
   if (!model.ok || !own.ok) return { ok: false, problems };
 
   const task = own.value.task;
   if (task.kind !== TASK_KIND_BY_CELL[cell.kind]) {
-    return { ok: false, problems: [{ path: 'task.kind', message: `This cell runs a "${TASK_KIND_BY_CELL[cell.kind]}" task` }] };
+    return {
+      ok: false,
+      problems: [{ path: 'task.kind', message: `This cell runs a "${TASK_KIND_BY_CELL[cell.kind]}" task` }],
+    };
   }
   const parsed = analyzeRequestSchema.safeParse({ model: toEngineModel(model.value), task });
   if (!parsed.success) return { ok: false, problems: problemsFromZod(parsed.error) };
@@ -83,7 +89,10 @@ export type Freshness = 'never-run' | 'up-to-date' | 'stale' | 'invalid';
  * current resolved request (with the engine version the output records) differs from
  * `output.inputHash`; "invalid" when the current input cannot be resolved at all.
  */
-export async function cellFreshness(resolution: Resolution, output: CellOutput | undefined): Promise<Freshness> {
+export async function cellFreshness(
+  resolution: Resolution,
+  output: CellOutput | undefined,
+): Promise<Freshness> {
   if (!resolution.ok) return 'invalid';
   if (!output) return 'never-run';
   const hash = await inputHash(output.engineVersion, resolution.request);

@@ -58,7 +58,9 @@ export type MarkType = (typeof MARK_TYPES)[number];
 const urlSchema = z
   .string()
   .max(DOCUMENT_LIMITS.maxUrlLength)
-  .refine((u) => !/^\s*(javascript|vbscript|data:text)/i.test(u), { message: 'This kind of address is not allowed' });
+  .refine((u) => !/^\s*(javascript|vbscript|data:text)/i.test(u), {
+    message: 'This kind of address is not allowed',
+  });
 
 const latexSchema = z.string().max(DOCUMENT_LIMITS.maxLatexLength, {
   message: `A formula may have at most ${DOCUMENT_LIMITS.maxLatexLength} characters`,
@@ -70,7 +72,11 @@ export const nodeAttrSchemas = {
   orderedList: z.object({ start: z.number().int().min(0).optional() }).loose(),
   codeBlock: z.object({ language: z.string().max(40).nullish() }).loose(),
   image: z
-    .object({ src: urlSchema.min(1), alt: z.string().max(1000).nullish(), title: z.string().max(1000).nullish() })
+    .object({
+      src: urlSchema.min(1),
+      alt: z.string().max(1000).nullish(),
+      title: z.string().max(1000).nullish(),
+    })
     .loose(),
   inlineMath: z.object({ latex: latexSchema }).loose(),
   displayMath: z.object({ latex: latexSchema }).loose(),
@@ -93,7 +99,9 @@ export const markSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('code'), attrs: z.record(z.string(), z.unknown()).optional() }),
   z.object({
     type: z.literal('link'),
-    attrs: z.object({ href: urlSchema.min(1), target: z.string().nullish(), rel: z.string().nullish() }).loose(),
+    attrs: z
+      .object({ href: urlSchema.min(1), target: z.string().nullish(), rel: z.string().nullish() })
+      .loose(),
   }),
 ]);
 export type DocMark = z.infer<typeof markSchema>;
@@ -152,7 +160,11 @@ function checkTree(root: DocNode, ctx: z.RefinementCtx): void {
   const visit = (node: DocNode, path: (string | number)[], depth: number): void => {
     count += 1;
     if (depth > DOCUMENT_LIMITS.maxDepth) {
-      ctx.addIssue({ code: 'custom', path, message: `The document is nested deeper than ${DOCUMENT_LIMITS.maxDepth} levels` });
+      ctx.addIssue({
+        code: 'custom',
+        path,
+        message: `The document is nested deeper than ${DOCUMENT_LIMITS.maxDepth} levels`,
+      });
       return;
     }
     if (!KNOWN.has(node.type)) {
@@ -163,20 +175,32 @@ function checkTree(root: DocNode, ctx: z.RefinementCtx): void {
       ctx.addIssue({ code: 'custom', path: [...path, 'text'], message: 'A text node needs non-empty text' });
     }
     if (node.type !== 'text' && node.marks && node.marks.length > 0 && node.type !== 'inlineMath') {
-      ctx.addIssue({ code: 'custom', path: [...path, 'marks'], message: `A ${node.type} node cannot carry marks` });
+      ctx.addIssue({
+        code: 'custom',
+        path: [...path, 'marks'],
+        message: `A ${node.type} node cannot carry marks`,
+      });
     }
     const attrSchema = (nodeAttrSchemas as Record<string, z.ZodType>)[node.type];
     if (attrSchema) {
       const parsed = attrSchema.safeParse(node.attrs ?? {});
       if (!parsed.success) {
         for (const issue of parsed.error.issues) {
-          ctx.addIssue({ code: 'custom', path: [...path, 'attrs', ...issue.path.map(String)], message: issue.message });
+          ctx.addIssue({
+            code: 'custom',
+            path: [...path, 'attrs', ...issue.path.map(String)],
+            message: issue.message,
+          });
         }
       } else if (node.type === 'cell') {
         cells += 1;
         const id = (parsed.data as { id: string }).id;
         if (cellIds.has(id)) {
-          ctx.addIssue({ code: 'custom', path: [...path, 'attrs', 'id'], message: `Two cells share the id ${id}` });
+          ctx.addIssue({
+            code: 'custom',
+            path: [...path, 'attrs', 'id'],
+            message: `Two cells share the id ${id}`,
+          });
         }
         cellIds.add(id);
       }
@@ -206,10 +230,18 @@ function checkTree(root: DocNode, ctx: z.RefinementCtx): void {
   };
   visit(root, [], 1);
   if (count > DOCUMENT_LIMITS.maxNodes) {
-    ctx.addIssue({ code: 'custom', path: [], message: `The document has more than ${DOCUMENT_LIMITS.maxNodes} nodes` });
+    ctx.addIssue({
+      code: 'custom',
+      path: [],
+      message: `The document has more than ${DOCUMENT_LIMITS.maxNodes} nodes`,
+    });
   }
   if (cells > DOCUMENT_LIMITS.maxCells) {
-    ctx.addIssue({ code: 'custom', path: [], message: `The document has more than ${DOCUMENT_LIMITS.maxCells} cells` });
+    ctx.addIssue({
+      code: 'custom',
+      path: [],
+      message: `The document has more than ${DOCUMENT_LIMITS.maxCells} cells`,
+    });
   }
 }
 
@@ -310,7 +342,9 @@ export function documentToPlainText(doc: DocumentJson): string {
         const start = Number(node.attrs?.start ?? 1);
         (node.content ?? []).forEach((item, i) => {
           const marker = node.type === 'bulletList' ? '- ' : `${start + i}. `;
-          (item.content ?? []).forEach((c, j) => block(c, prefix + (j === 0 ? marker : ' '.repeat(marker.length))));
+          (item.content ?? []).forEach((c, j) =>
+            block(c, prefix + (j === 0 ? marker : ' '.repeat(marker.length))),
+          );
         });
         return;
       }

@@ -204,12 +204,25 @@ describe('an entry with cells', () => {
 
   it('rebases onto a revision recorded meanwhile instead of overwriting it', async () => {
     const body = page.getByRole('textbox', { name: 'Entry body' });
-    await body.locator('p').first().click({ position: { x: 2, y: 8 } });
+    await body
+      .locator('p')
+      .first()
+      .click({ position: { x: 2, y: 8 } });
     await page.keyboard.press('End');
     await page.keyboard.type(' My local note.');
     // Meanwhile, another tab records a revision with a paragraph of its own.
     const [, , notebookId, , entryId] = new URL(entryUrl).pathname.split('/');
-    type Detail = { head: { id: string; number: number; title: string; entryDate: string; tags: string[]; document: { content: unknown[] }; outputs: unknown } };
+    type Detail = {
+      head: {
+        id: string;
+        number: number;
+        title: string;
+        entryDate: string;
+        tags: string[];
+        document: { content: unknown[] };
+        outputs: unknown;
+      };
+    };
     const detail = await api<Detail>(page, 'GET', `/api/notebooks/${notebookId}/entries/${entryId}`);
     const h = detail.head;
     await api(page, 'POST', `/api/notebooks/${notebookId}/entries/${entryId}/revisions`, {
@@ -217,7 +230,13 @@ describe('an entry with cells', () => {
       title: h.title,
       entryDate: h.entryDate,
       tags: h.tags,
-      document: { type: 'doc', content: [...h.document.content, { type: 'paragraph', content: [{ type: 'text', text: 'Added from another tab.' }] }] },
+      document: {
+        type: 'doc',
+        content: [
+          ...h.document.content,
+          { type: 'paragraph', content: [{ type: 'text', text: 'Added from another tab.' }] },
+        ],
+      },
       outputs: h.outputs,
       message: 'From another tab',
     });

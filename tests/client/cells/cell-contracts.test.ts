@@ -3,7 +3,12 @@ import { describe, expect, it } from 'vitest';
 import { canonicalJson, hashPayload, inputHash } from '@shared/cells/hash.ts';
 import { checkCellInput } from '@shared/cells/inputs.ts';
 import { cellFreshness, cellsUsingModel, resolveCellRequest } from '@shared/cells/resolve.ts';
-import { documentSchema, documentToPlainText, extractCells, type DocumentJson } from '@shared/editor/document.ts';
+import {
+  documentSchema,
+  documentToPlainText,
+  extractCells,
+  type DocumentJson,
+} from '@shared/editor/document.ts';
 import { defaultCellInput } from '@/features/cells/components/default-cell-input.ts';
 
 const MODEL = '7f1e2c1a-1b2c-4d3e-8f90-123456789abc';
@@ -13,9 +18,34 @@ function entry(value = 0.1, bounds = { min: 0, max: 1 }): DocumentJson {
   return {
     type: 'doc',
     content: [
-      { type: 'paragraph', content: [{ type: 'text', text: 'Rate ' }, { type: 'inlineMath', attrs: { latex: 'k e^{x}' } }] },
-      { type: 'cell', attrs: { id: MODEL, kind: 'model', input: { name: 'Saddle-node', variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value }], definitions: [] } } },
-      { type: 'cell', attrs: { id: BRANCH, kind: 'branch', input: { modelCellId: MODEL, task: { kind: 'continuation', parameter: 'mu', bounds } } } },
+      {
+        type: 'paragraph',
+        content: [
+          { type: 'text', text: 'Rate ' },
+          { type: 'inlineMath', attrs: { latex: 'k e^{x}' } },
+        ],
+      },
+      {
+        type: 'cell',
+        attrs: {
+          id: MODEL,
+          kind: 'model',
+          input: {
+            name: 'Saddle-node',
+            variables: [{ name: 'x', rhs: 'mu - x^2' }],
+            parameters: [{ name: 'mu', value }],
+            definitions: [],
+          },
+        },
+      },
+      {
+        type: 'cell',
+        attrs: {
+          id: BRANCH,
+          kind: 'branch',
+          input: { modelCellId: MODEL, task: { kind: 'continuation', parameter: 'mu', bounds } },
+        },
+      },
     ],
   };
 }
@@ -44,9 +74,31 @@ describe('documentSchema', () => {
   });
   it.each([
     [{ type: 'doc', content: [{ type: 'script' }] }, 'content.0.type', 'Unknown node type'],
-    [{ type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'heading' }] }] }, 'content.0.content.0.type', 'cannot sit inside'],
-    [{ type: 'doc', content: [{ type: 'cell', attrs: { id: 'x', kind: 'model', input: {} } }] }, 'content.0.attrs.id', 'UUID'],
-    [{ type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'text', text: 'a', marks: [{ type: 'link', attrs: { href: 'javascript:alert(1)' } }] }] }] }, 'content.0.content.0.marks.0.attrs.href', 'not allowed'],
+    [
+      { type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'heading' }] }] },
+      'content.0.content.0.type',
+      'cannot sit inside',
+    ],
+    [
+      { type: 'doc', content: [{ type: 'cell', attrs: { id: 'x', kind: 'model', input: {} } }] },
+      'content.0.attrs.id',
+      'UUID',
+    ],
+    [
+      {
+        type: 'doc',
+        content: [
+          {
+            type: 'paragraph',
+            content: [
+              { type: 'text', text: 'a', marks: [{ type: 'link', attrs: { href: 'javascript:alert(1)' } }] },
+            ],
+          },
+        ],
+      },
+      'content.0.content.0.marks.0.attrs.href',
+      'not allowed',
+    ],
   ])('rejects %j at %s', (doc, path, message) => {
     const r = documentSchema.safeParse(doc);
     expect(r.success).toBe(false);
@@ -65,8 +117,17 @@ describe('resolveCellRequest', () => {
     const r = resolveCellRequest(entry(), BRANCH);
     expect(r.ok).toBe(true);
     if (!r.ok) return;
-    expect(r.request.model).toEqual({ variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 0.1 }], definitions: [] });
-    expect(r.request.task).toMatchObject({ kind: 'continuation', parameter: 'mu', direction: 'both', maxPoints: 500 });
+    expect(r.request.model).toEqual({
+      variables: [{ name: 'x', rhs: 'mu - x^2' }],
+      parameters: [{ name: 'mu', value: 0.1 }],
+      definitions: [],
+    });
+    expect(r.request.task).toMatchObject({
+      kind: 'continuation',
+      parameter: 'mu',
+      direction: 'both',
+      maxPoints: 500,
+    });
   });
   it('names the field of each problem, in the model cell and in the task', () => {
     const doc = entry(0.1, { min: 2, max: 1 });
@@ -83,7 +144,10 @@ describe('resolveCellRequest', () => {
     const doc = entry();
     doc.content!.splice(1, 1);
     const r = resolveCellRequest(doc, BRANCH);
-    expect(!r.ok && r.problems[0]).toEqual({ path: 'modelCellId', message: 'The chosen model cell is no longer in this entry' });
+    expect(!r.ok && r.problems[0]).toEqual({
+      path: 'modelCellId',
+      message: 'The chosen model cell is no longer in this entry',
+    });
   });
 });
 
@@ -91,7 +155,13 @@ describe('stale check', () => {
   it('is up to date for the hash it was computed from, stale after a parameter change', async () => {
     const r = resolveCellRequest(entry(0.1), BRANCH);
     if (!r.ok) throw new Error('resolves');
-    const output = { inputHash: await inputHash('2.0.0', r.request), engineVersion: '2.0.0', computedAt: '2026-12-01T10:00:00Z', status: 'ok' as const, elapsedMs: 3 };
+    const output = {
+      inputHash: await inputHash('2.0.0', r.request),
+      engineVersion: '2.0.0',
+      computedAt: '2026-12-01T10:00:00Z',
+      status: 'ok' as const,
+      elapsedMs: 3,
+    };
     expect(await cellFreshness(r, output)).toBe('up-to-date');
     expect(await cellFreshness(resolveCellRequest(entry(0.2), BRANCH), output)).toBe('stale');
     expect(await cellFreshness(r, undefined)).toBe('never-run');
@@ -113,6 +183,7 @@ describe('defaultCellInput', () => {
     const input = defaultCellInput('branch', cells);
     expect(input.modelCellId).toBe(MODEL);
     expect(checkCellInput('branch', input).ok).toBe(true);
-    for (const kind of ['equilibria', 'trajectory'] as const) expect(checkCellInput(kind, defaultCellInput(kind, cells)).ok).toBe(true);
+    for (const kind of ['equilibria', 'trajectory'] as const)
+      expect(checkCellInput(kind, defaultCellInput(kind, cells)).ok).toBe(true);
   });
 });

@@ -20,7 +20,10 @@ describe('bistableBands', () => {
 
   it('opens the region towards the side the normal form names', () => {
     const { curve } = cuspFoldCurve(201);
-    const flipped = { ...curve, points: curve.points.map((q) => ({ ...q, normalForm: { a: -q.normalForm.a, b: q.normalForm.b } })) };
+    const flipped = {
+      ...curve,
+      points: curve.points.map((q) => ({ ...q, normalForm: { a: -q.normalForm.a, b: q.normalForm.b } })),
+    };
     const bands = bistableBands(flipped, 'r', 'h', [-0.2, 3.2], 20);
     expect(bands.every((b) => b.x === -0.2)).toBe(true);
   });

@@ -13,9 +13,12 @@ describe('readNumber', () => {
   ])('reads %j as the number %d', (text, n) => {
     expect(readNumber(text)).toBe(n);
   });
-  it.each(['', '1e-', 'abc', '1,5', '--1', 'Infinity'])('keeps %j as text (the form then says "Enter a number")', (text) => {
-    expect(readNumber(text)).toBe(text);
-  });
+  it.each(['', '1e-', 'abc', '1,5', '--1', 'Infinity'])(
+    'keeps %j as text (the form then says "Enter a number")',
+    (text) => {
+      expect(readNumber(text)).toBe(text);
+    },
+  );
 });
 
 describe('symbolTex', () => {

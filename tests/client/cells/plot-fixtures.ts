@@ -53,7 +53,9 @@ export function mirroredSaddleNodeBranch(): ContinuationResult {
   const r = saddleNodeBranch();
   r.branch.points = r.branch.points.map((p) => ({ ...p, parameter: -p.parameter }));
   r.branch.events = r.branch.events.map((e) =>
-    e.kind === 'fold' ? { ...e, normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' as const } } : e,
+    e.kind === 'fold'
+      ? { ...e, normalForm: { ...e.normalForm, a: -1, equilibriaSide: 'below' as const } }
+      : e,
   );
   return r;
 }

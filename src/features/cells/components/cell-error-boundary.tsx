@@ -1,7 +1,10 @@
 import { Component, type ErrorInfo, type ReactNode } from 'react';
 
 /** One cell failing to draw never takes the entry down with it. */
-export class CellErrorBoundary extends Component<{ children: ReactNode; resetKey: string }, { error: Error | null; key: string }> {
+export class CellErrorBoundary extends Component<
+  { children: ReactNode; resetKey: string },
+  { error: Error | null; key: string }
+> {
   override state = { error: null as Error | null, key: this.props.resetKey };
 
   static getDerivedStateFromError(error: Error) {
@@ -22,7 +25,9 @@ export class CellErrorBoundary extends Component<{ children: ReactNode; resetKey
         <div role="alert" className="rounded-md border border-unstable bg-unstable-soft px-4 py-3 text-sm">
           <p className="font-semibold text-unstable">This cell could not be drawn.</p>
           <p className="mt-1 text-ink">{this.state.error.message}</p>
-          <p className="mt-1 text-xs text-ink-muted">The entry and the cell’s input are safe; changing the input or reloading redraws it.</p>
+          <p className="mt-1 text-xs text-ink-muted">
+            The entry and the cell’s input are safe; changing the input or reloading redraws it.
+          </p>
         </div>
       );
     }

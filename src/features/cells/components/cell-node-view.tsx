@@ -33,7 +33,13 @@ function formatSeconds(ms: number): string {
 }
 
 type Status = { label: string; tone: BadgeTone };
-function statusOf(freshness: Freshness | undefined, output: CellOutput | undefined, running: boolean, elapsed: number, runError?: string): Status {
+function statusOf(
+  freshness: Freshness | undefined,
+  output: CellOutput | undefined,
+  running: boolean,
+  elapsed: number,
+  runError?: string,
+): Status {
   if (running) return { label: `running ${formatSeconds(elapsed)}`, tone: 'accent' };
   if (runError) return { label: 'run failed', tone: 'unstable' };
   if (freshness === 'invalid') return { label: 'input needs attention', tone: 'warning' };
@@ -47,7 +53,8 @@ function OutputStamp({ output, cached }: { output: CellOutput; cached: boolean }
   const at = new Date(output.computedAt);
   return (
     <p className="mt-3 border-t border-rule pt-2 text-[11px] text-ink-muted" data-testid="output-stamp">
-      Computed {at.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })} · engine {output.engineVersion} · input{' '}
+      Computed {at.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })} · engine{' '}
+      {output.engineVersion} · input{' '}
       <span className="figures" title={output.inputHash}>
         {output.inputHash.slice(0, 10)}
       </span>{' '}
@@ -57,7 +64,15 @@ function OutputStamp({ output, cached }: { output: CellOutput; cached: boolean }
   );
 }
 
-function CellMenu({ onMove, onDuplicate, onRemove }: { onMove: (d: 'up' | 'down') => void; onDuplicate: () => void; onRemove: () => void }) {
+function CellMenu({
+  onMove,
+  onDuplicate,
+  onRemove,
+}: {
+  onMove: (d: 'up' | 'down') => void;
+  onDuplicate: () => void;
+  onRemove: () => void;
+}) {
   const [open, setOpen] = useState(false);
   const item = 'block w-full rounded-sm px-3 py-1.5 text-left text-sm hover:bg-sunken';
   const act = (f: () => void) => () => {
@@ -66,11 +81,21 @@ function CellMenu({ onMove, onDuplicate, onRemove }: { onMove: (d: 'up' | 'down'
   };
   return (
     <div className="relative" onKeyDown={(e) => e.key === 'Escape' && setOpen(false)}>
-      <button type="button" aria-label="Cell actions" aria-haspopup="menu" aria-expanded={open} onClick={() => setOpen((o) => !o)} className="h-8 w-8 rounded-sm text-lg leading-none text-ink-muted hover:bg-sunken hover:text-ink">
+      <button
+        type="button"
+        aria-label="Cell actions"
+        aria-haspopup="menu"
+        aria-expanded={open}
+        onClick={() => setOpen((o) => !o)}
+        className="h-8 w-8 rounded-sm text-lg leading-none text-ink-muted hover:bg-sunken hover:text-ink"
+      >
         ⋯
       </button>
       {open && (
-        <div role="menu" className="absolute right-0 z-30 mt-1 w-44 rounded-md border border-rule bg-surface p-1 shadow-xl">
+        <div
+          role="menu"
+          className="absolute right-0 z-30 mt-1 w-44 rounded-md border border-rule bg-surface p-1 shadow-xl"
+        >
           <button type="button" role="menuitem" className={item} onClick={act(() => onMove('up'))}>
             Move up
           </button>
@@ -90,7 +115,14 @@ function CellMenu({ onMove, onDuplicate, onRemove }: { onMove: (d: 'up' | 'down'
 }
 
 /** A computation cell in the entry: a card with its kind, model, status and actions; the input form; the output. */
-export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPos, selected }: ReactNodeViewProps) {
+export function CellNodeView({
+  node,
+  updateAttributes,
+  deleteNode,
+  editor,
+  getPos,
+  selected,
+}: ReactNodeViewProps) {
   const rt = useCellsRuntime();
   const id = String(node.attrs.id ?? '');
   const kind = node.attrs.kind as CellKind;
@@ -128,7 +160,9 @@ export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPo
         <p className="font-medium text-unstable">The engine could not run this cell.</p>
         <p className="mt-0.5 text-ink">
           {output.error.message}
-          {output.error.path ? <span className="ml-1 font-mono text-xs text-ink-muted">({output.error.path})</span> : null}
+          {output.error.path ? (
+            <span className="ml-1 font-mono text-xs text-ink-muted">({output.error.path})</span>
+          ) : null}
         </p>
       </div>
     );
@@ -137,14 +171,30 @@ export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPo
     if (r) result = <EquilibriaOutput result={r} variables={variables} />;
   } else if (kind === 'branch') {
     const r = resultFor('branch', output);
-    if (r) result = <BranchOutput result={r} parameter={String(task.parameter ?? '')} yVariable={String(view.yVariable ?? variables[0] ?? NORM_AXIS)} variables={variables} />;
+    if (r)
+      result = (
+        <BranchOutput
+          result={r}
+          parameter={String(task.parameter ?? '')}
+          yVariable={String(view.yVariable ?? variables[0] ?? NORM_AXIS)}
+          variables={variables}
+        />
+      );
   } else if (kind === 'fold-map') {
     const r = resultFor('fold-map', output);
     const ps = Array.isArray(task.parameters) ? (task.parameters as string[]) : [];
     if (r && ps.length === 2) result = <FoldMapOutput result={r} parameters={[ps[0], ps[1]]} />;
   } else if (kind === 'trajectory') {
     const r = resultFor('trajectory', output);
-    if (r) result = <TrajectoryOutput result={r} variables={variables} phaseX={view.phaseX as string | undefined} phaseY={view.phaseY as string | undefined} />;
+    if (r)
+      result = (
+        <TrajectoryOutput
+          result={r}
+          variables={variables}
+          phaseX={view.phaseX as string | undefined}
+          phaseY={view.phaseY as string | undefined}
+        />
+      );
   }
 
   const placed = ['modelCellId', 'task'];
@@ -157,30 +207,51 @@ export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPo
       data-cell-kind={kind}
       data-cell-id={id}
       data-status={status?.label.split(' ')[0] ?? 'model'}
-      className={cn('not-prose rounded-lg border bg-surface font-sans text-base shadow-sm', selected ? 'border-accent ring-2 ring-accent/40' : 'border-rule-strong/60')}
+      className={cn(
+        'not-prose rounded-lg border bg-surface font-sans text-base shadow-sm',
+        selected ? 'border-accent ring-2 ring-accent/40' : 'border-rule-strong/60',
+      )}
     >
-      <header className="flex flex-wrap items-center gap-2 rounded-t-lg border-b border-rule bg-sunken/60 px-3 py-2" contentEditable={false}>
-        <span data-drag-handle className={cn('select-none text-ink-muted', editable && 'cursor-grab')} aria-hidden="true" title="Drag to move">
+      <header
+        className="flex flex-wrap items-center gap-2 rounded-t-lg border-b border-rule bg-sunken/60 px-3 py-2"
+        contentEditable={false}
+      >
+        <span
+          data-drag-handle
+          className={cn('select-none text-ink-muted', editable && 'cursor-grab')}
+          aria-hidden="true"
+          title="Drag to move"
+        >
           ⠿
         </span>
         <h3 className="text-sm font-semibold text-ink">{CELL_KIND_LABELS[kind] ?? kind}</h3>
         {kind === 'model' && <span className="text-sm text-ink-muted">{String(input.name ?? '')}</span>}
-        {analysis && <span className="text-sm text-ink-muted">{model ? `of ${model.name}` : 'no model chosen'}</span>}
+        {analysis && (
+          <span className="text-sm text-ink-muted">{model ? `of ${model.name}` : 'no model chosen'}</span>
+        )}
         {status && (
           <Badge tone={status.tone} className="ml-1">
             <span aria-live="polite">{status.label}</span>
           </Badge>
         )}
         <div className="ml-auto flex items-center gap-1">
-          {analysis && editable && (run ? (
-            <Button size="sm" variant="danger" onClick={() => rt.cancel(id)}>
-              Cancel
-            </Button>
-          ) : (
-            <Button size="sm" variant={freshness === 'stale' || freshness === 'never-run' ? 'primary' : 'secondary'} disabled={!canRun} onClick={() => rt.run(id)} title={canRun ? undefined : 'Fix the input first'}>
-              {output ? 'Run again' : 'Run'}
-            </Button>
-          ))}
+          {analysis &&
+            editable &&
+            (run ? (
+              <Button size="sm" variant="danger" onClick={() => rt.cancel(id)}>
+                Cancel
+              </Button>
+            ) : (
+              <Button
+                size="sm"
+                variant={freshness === 'stale' || freshness === 'never-run' ? 'primary' : 'secondary'}
+                disabled={!canRun}
+                onClick={() => rt.run(id)}
+                title={canRun ? undefined : 'Fix the input first'}
+              >
+                {output ? 'Run again' : 'Run'}
+              </Button>
+            ))}
           {editable && (
             <CellMenu
               onMove={(d) => editor.commands.moveCell(pos(), d)}
@@ -198,14 +269,21 @@ export function CellNodeView({ node, updateAttributes, deleteNode, editor, getPo
             <p className="mb-2 text-xs text-ink-muted">Uses the model “{model.name}”.</p>
           )}
           {modelProblems.length > 0 && (
-            <p className="mb-2 text-sm text-warning">The model “{model?.name}” has fields that need attention ({modelProblems[0].message.toLowerCase()}).</p>
+            <p className="mb-2 text-sm text-warning">
+              The model “{model?.name}” has fields that need attention (
+              {modelProblems[0].message.toLowerCase()}).
+            </p>
           )}
           {otherProblems.map((p, i) => (
             <p key={i} className="mb-2 text-sm text-unstable">
               {p.message}
             </p>
           ))}
-          {rt.runErrors[id] && <p className="mb-2 text-sm text-unstable">The run did not finish: {rt.runErrors[id]} The previous output is kept.</p>}
+          {rt.runErrors[id] && (
+            <p className="mb-2 text-sm text-unstable">
+              The run did not finish: {rt.runErrors[id]} The previous output is kept.
+            </p>
+          )}
           <div className={cn(freshness === 'stale' && 'opacity-60 transition-opacity')}>{result}</div>
           {output && <OutputStamp output={output} cached={!!rt.cached[id]} />}
         </CellErrorBoundary>

@@ -1,5 +1,11 @@
 import { useMemo, useRef, useState } from 'react';
-import type { ContinuationResult, EquilibriaResult, FoldCurveResult, SimulateResult, Stability } from '@shared/engine/contract.ts';
+import type {
+  ContinuationResult,
+  EquilibriaResult,
+  FoldCurveResult,
+  SimulateResult,
+  Stability,
+} from '@shared/engine/contract.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { cn } from '@/components/ui/cn.ts';
 import { branchDiagramSpec, EVENT_NAMES, NORM_AXIS } from '../plots/branch-diagram-spec.ts';
@@ -21,7 +27,11 @@ const STOP_REASON_TEXT: Record<string, string> = {
 };
 
 export function StabilityBadge({ stability }: { stability: Stability }) {
-  return <Badge tone={stability === 'stable' ? 'stable' : stability === 'unstable' ? 'unstable' : 'warning'}>{stability}</Badge>;
+  return (
+    <Badge tone={stability === 'stable' ? 'stable' : stability === 'unstable' ? 'unstable' : 'warning'}>
+      {stability}
+    </Badge>
+  );
 }
 
 function StopNote({ reason, atStart }: { reason: string; atStart?: string }) {
@@ -39,14 +49,19 @@ const td = 'px-2 py-1.5 align-top';
 export function EquilibriaOutput({ result, variables }: { result: EquilibriaResult; variables: string[] }) {
   const names = variables.length ? variables : Object.keys(result.equilibria[0]?.state ?? {});
   if (result.equilibria.length === 0) {
-    return <p className="text-sm text-ink-muted">No equilibrium found in the box ({result.starts.tried} starting points tried).</p>;
+    return (
+      <p className="text-sm text-ink-muted">
+        No equilibrium found in the box ({result.starts.tried} starting points tried).
+      </p>
+    );
   }
   return (
     <div>
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-sm">
           <caption className="mb-1 text-left text-xs text-ink-muted">
-            {result.equilibria.length} equilibri{result.equilibria.length === 1 ? 'um' : 'a'} · {result.starts.converged} of {result.starts.tried} starting points converged
+            {result.equilibria.length} equilibri{result.equilibria.length === 1 ? 'um' : 'a'} ·{' '}
+            {result.starts.converged} of {result.starts.tried} starting points converged
           </caption>
           <thead className="border-b border-rule-strong">
             <tr>
@@ -58,7 +73,9 @@ export function EquilibriaOutput({ result, variables }: { result: EquilibriaResu
               ))}
               <th className={th}>eigenvalues</th>
               <th className={th}>stability</th>
-              <th className={th} title="Number of eigenvalues with positive real part">unstable directions</th>
+              <th className={th} title="Number of eigenvalues with positive real part">
+                unstable directions
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -93,12 +110,30 @@ function stabilityChange(result: ContinuationResult, after: number): string {
   return before === next ? `${before} on both sides` : `${before} → ${next}`;
 }
 
-export function BranchOutput({ result, parameter, yVariable, variables }: { result: ContinuationResult; parameter: string; yVariable: string; variables: string[] }) {
+export function BranchOutput({
+  result,
+  parameter,
+  yVariable,
+  variables,
+}: {
+  result: ContinuationResult;
+  parameter: string;
+  yVariable: string;
+  variables: string[];
+}) {
   const [selected, setSelected] = useState<number | null>(null);
   const plotRef = useRef<HTMLDivElement>(null);
-  const y = yVariable === NORM_AXIS || variables.includes(yVariable) ? yVariable : (variables[0] ?? NORM_AXIS);
+  const y =
+    yVariable === NORM_AXIS || variables.includes(yVariable) ? yVariable : (variables[0] ?? NORM_AXIS);
   const spec = useMemo(
-    () => branchDiagramSpec(result, { parameter, yVariable: y, variables, palette: readPlotPalette(), selectedEvent: selected }),
+    () =>
+      branchDiagramSpec(result, {
+        parameter,
+        yVariable: y,
+        variables,
+        palette: readPlotPalette(),
+        selectedEvent: selected,
+      }),
     [result, parameter, y, variables, selected],
   );
   const select = (i: number) => {
@@ -116,14 +151,18 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
         />
       </div>
       <p className="mt-1 text-xs text-ink-muted">
-        Solid: stable · dashed: unstable · dotted grey near each fold: the normal-form prediction x* ± v·√(−2a(μ−μ*)/b)
-        {variables.length === 1 && y === variables[0] ? ` · background: where ${y}′ > 0 and < 0` : ''}. {result.branch.points.length} points.
+        Solid: stable · dashed: unstable · dotted grey near each fold: the normal-form prediction x* ±
+        v·√(−2a(μ−μ*)/b)
+        {variables.length === 1 && y === variables[0] ? ` · background: where ${y}′ > 0 and < 0` : ''}.{' '}
+        {result.branch.points.length} points.
       </p>
       <StopNote reason={result.branch.stopReason} atStart={result.branch.stopReasonAtStart} />
       {events.length > 0 ? (
         <div className="mt-3 overflow-x-auto">
           <table className="w-full border-collapse text-sm">
-            <caption className="mb-1 text-left text-xs font-semibold tracking-wide text-ink-muted uppercase">Events along the branch</caption>
+            <caption className="mb-1 text-left text-xs font-semibold tracking-wide text-ink-muted uppercase">
+              Events along the branch
+            </caption>
             <thead className="border-b border-rule-strong">
               <tr>
                 <th className={th}>kind</th>
@@ -140,14 +179,23 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
                 <tr
                   key={i}
                   data-selected={selected === i ? 'true' : undefined}
-                  className={cn('cursor-pointer border-b border-rule last:border-0 hover:bg-sunken', selected === i && 'bg-accent-soft')}
+                  className={cn(
+                    'cursor-pointer border-b border-rule last:border-0 hover:bg-sunken',
+                    selected === i && 'bg-accent-soft',
+                  )}
                   onClick={() => select(i)}
                 >
                   <td className={td}>
-                    <button type="button" className="font-medium text-accent underline-offset-2 hover:underline" onClick={() => select(i)}>
+                    <button
+                      type="button"
+                      className="font-medium text-accent underline-offset-2 hover:underline"
+                      onClick={() => select(i)}
+                    >
                       {EVENT_NAMES[e.kind]}
                     </button>
-                    {e.kind === 'fold' && !e.normalForm.nondegenerate && <span className="ml-1 text-xs text-warning">(degenerate)</span>}
+                    {e.kind === 'fold' && !e.normalForm.nondegenerate && (
+                      <span className="ml-1 text-xs text-warning">(degenerate)</span>
+                    )}
                   </td>
                   <td className={cn(td, 'figures')}>{formatNumber(e.parameter)}</td>
                   <td className={cn(td, 'figures text-xs')}>
@@ -155,8 +203,12 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
                       .map(([k, v]) => `${k} = ${formatNumber(v)}`)
                       .join(', ')}
                   </td>
-                  <td className={cn(td, 'figures')}>{e.kind === 'fold' ? formatNumber(e.normalForm.a) : '—'}</td>
-                  <td className={cn(td, 'figures')}>{e.kind === 'fold' ? formatNumber(e.normalForm.b) : '—'}</td>
+                  <td className={cn(td, 'figures')}>
+                    {e.kind === 'fold' ? formatNumber(e.normalForm.a) : '—'}
+                  </td>
+                  <td className={cn(td, 'figures')}>
+                    {e.kind === 'fold' ? formatNumber(e.normalForm.b) : '—'}
+                  </td>
                   <td className={td}>
                     {e.kind === 'fold'
                       ? `${parameter} ${e.normalForm.equilibriaSide === 'above' ? '>' : '<'} ${formatNumber(e.parameter)}`
@@ -177,14 +229,24 @@ export function BranchOutput({ result, parameter, yVariable, variables }: { resu
   );
 }
 
-export function FoldMapOutput({ result, parameters }: { result: FoldCurveResult; parameters: [string, string] }) {
-  const spec = useMemo(() => foldMapSpec(result, parameters, { palette: readPlotPalette() }), [result, parameters]);
+export function FoldMapOutput({
+  result,
+  parameters,
+}: {
+  result: FoldCurveResult;
+  parameters: [string, string];
+}) {
+  const spec = useMemo(
+    () => foldMapSpec(result, parameters, { palette: readPlotPalette() }),
+    [result, parameters],
+  );
   const cusps = result.curve.events;
   return (
     <div>
       <LazyPlot spec={spec} label={`Fold curve in the plane of ${parameters[0]} and ${parameters[1]}`} />
       <p className="mt-1 text-xs text-ink-muted">
-        Line: parameter values where a fold occurs · shaded: inside the fold curve, where two stable states coexist · triangles: cusps. {result.curve.points.length} points.
+        Line: parameter values where a fold occurs · shaded: inside the fold curve, where two stable states
+        coexist · triangles: cusps. {result.curve.points.length} points.
       </p>
       <StopNote reason={result.curve.stopReason} atStart={result.curve.stopReasonAtStart} />
       {cusps.length > 0 && (
@@ -200,13 +262,29 @@ export function FoldMapOutput({ result, parameters }: { result: FoldCurveResult;
   );
 }
 
-export function TrajectoryOutput({ result, variables, phaseX, phaseY }: { result: SimulateResult; variables: string[]; phaseX?: string; phaseY?: string }) {
+export function TrajectoryOutput({
+  result,
+  variables,
+  phaseX,
+  phaseY,
+}: {
+  result: SimulateResult;
+  variables: string[];
+  phaseX?: string;
+  phaseY?: string;
+}) {
   const names = variables.length ? variables : Object.keys(result.trajectory.state);
   const palette = useMemo(() => readPlotPalette(), []);
-  const series = useMemo(() => timeSeriesSpec(result, names, { palette, height: 240 }), [result, names, palette]);
+  const series = useMemo(
+    () => timeSeriesSpec(result, names, { palette, height: 240 }),
+    [result, names, palette],
+  );
   const px = phaseX && names.includes(phaseX) ? phaseX : names[0];
   const py = phaseY && names.includes(phaseY) && phaseY !== px ? phaseY : names.find((n) => n !== px);
-  const phase = useMemo(() => (py ? phasePlaneSpec(result, px, py, { palette, height: 240 }) : null), [result, px, py, palette]);
+  const phase = useMemo(
+    () => (py ? phasePlaneSpec(result, px, py, { palette, height: 240 }) : null),
+    [result, px, py, palette],
+  );
   return (
     <div>
       <div className={cn('grid gap-4', phase && 'md:grid-cols-2')}>

@@ -11,7 +11,12 @@ import { modelSummaries } from './model-ref.ts';
 export function defaultCellInput(kind: CellKind, cells: readonly DocumentCell[]): Record<string, unknown> {
   if (kind === 'model') {
     const n = cells.filter((c) => c.kind === 'model').length + 1;
-    return { name: n === 1 ? 'Model' : `Model ${n}`, variables: [{ name: 'x', rhs: '' }], parameters: [], definitions: [] };
+    return {
+      name: n === 1 ? 'Model' : `Model ${n}`,
+      variables: [{ name: 'x', rhs: '' }],
+      parameters: [],
+      definitions: [],
+    };
   }
   const models = modelSummaries(cells);
   const model = models[models.length - 1];
@@ -30,7 +35,14 @@ export function defaultCellInput(kind: CellKind, cells: readonly DocumentCell[])
       const [min, max] = around(p0?.value);
       return {
         modelCellId,
-        task: { kind: 'continuation', parameter: p0?.name ?? '', start: {}, bounds: { min, max }, maxPoints: ENGINE_DEFAULTS.maxPoints, direction: 'both' },
+        task: {
+          kind: 'continuation',
+          parameter: p0?.name ?? '',
+          start: {},
+          bounds: { min, max },
+          maxPoints: ENGINE_DEFAULTS.maxPoints,
+          direction: 'both',
+        },
         view: { yVariable: model?.variables[0] },
       };
     }
@@ -44,13 +56,24 @@ export function defaultCellInput(kind: CellKind, cells: readonly DocumentCell[])
       }
       return {
         modelCellId,
-        task: { kind: 'fold-curve', parameters: [p0?.name ?? '', p1?.name ?? ''], start: { parameters: start, state: {} }, bounds, maxPoints: ENGINE_DEFAULTS.maxPoints, direction: 'both' },
+        task: {
+          kind: 'fold-curve',
+          parameters: [p0?.name ?? '', p1?.name ?? ''],
+          start: { parameters: start, state: {} },
+          bounds,
+          maxPoints: ENGINE_DEFAULTS.maxPoints,
+          direction: 'both',
+        },
       };
     }
     case 'trajectory':
       return {
         modelCellId,
-        task: { kind: 'simulate', initial: {}, time: { start: 0, end: 10, samples: ENGINE_DEFAULTS.samples } },
+        task: {
+          kind: 'simulate',
+          initial: {},
+          time: { start: 0, end: 10, samples: ENGINE_DEFAULTS.samples },
+        },
         view: { phaseX: model?.variables[0], phaseY: model?.variables[1] },
       };
   }

@@ -3,7 +3,9 @@
  * expression parser is loaded on first use (it is large) and only when a model is on screen.
  */
 const GREEK = new Set(
-  'alpha beta gamma delta epsilon zeta eta theta iota kappa lambda mu nu xi pi rho sigma tau upsilon phi chi psi omega Gamma Delta Theta Lambda Xi Pi Sigma Upsilon Phi Psi Omega'.split(' '),
+  'alpha beta gamma delta epsilon zeta eta theta iota kappa lambda mu nu xi pi rho sigma tau upsilon phi chi psi omega Gamma Delta Theta Lambda Xi Pi Sigma Upsilon Phi Psi Omega'.split(
+    ' ',
+  ),
 );
 
 /** A name as LaTeX: greek letters by name, "T_a" → T_{a}, "x1" → x_{1}, "Da" → \mathrm{Da}. */
@@ -13,7 +15,12 @@ export function symbolTex(name: string): string {
   const base = digits && digits[1] ? digits[1] : head;
   const sub = [digits && digits[1] ? digits[2] : '', ...subs].filter(Boolean).join(',');
   const baseTex = GREEK.has(base) ? `\\${base}` : base.length === 1 ? base : `\\mathrm{${base}}`;
-  return sub ? `${baseTex}_{${sub.split(',').map((s) => (GREEK.has(s) ? `\\${s}` : s.length > 1 ? `\\mathrm{${s}}` : s)).join(',')}}` : baseTex;
+  return sub
+    ? `${baseTex}_{${sub
+        .split(',')
+        .map((s) => (GREEK.has(s) ? `\\${s}` : s.length > 1 ? `\\mathrm{${s}}` : s))
+        .join(',')}}`
+    : baseTex;
 }
 
 type MathjsNode = { type: string; name?: string; toTex: (o: object) => string };
@@ -32,7 +39,8 @@ export async function expressionTex(expression: string): Promise<string | null> 
     return parse(expression).toTex({
       parenthesis: 'auto',
       implicit: 'hide',
-      handler: (node: MathjsNode) => (node.type === 'SymbolNode' && node.name ? symbolTex(node.name) : undefined),
+      handler: (node: MathjsNode) =>
+        node.type === 'SymbolNode' && node.name ? symbolTex(node.name) : undefined,
     });
   } catch {
     return null;

@@ -9,6 +9,11 @@ export function problemAt(problems: readonly FieldProblem[] | undefined, path: s
 }
 
 /** Problems no field shows (so the card can list them). */
-export function unplacedProblems(problems: readonly FieldProblem[] | undefined, placed: readonly string[]): FieldProblem[] {
-  return (problems ?? []).filter((p) => !placed.some((f) => p.path === f || p.path.startsWith(`${f}.`) || p.path.startsWith(`${f}[`)));
+export function unplacedProblems(
+  problems: readonly FieldProblem[] | undefined,
+  placed: readonly string[],
+): FieldProblem[] {
+  return (problems ?? []).filter(
+    (p) => !placed.some((f) => p.path === f || p.path.startsWith(`${f}.`) || p.path.startsWith(`${f}[`)),
+  );
 }

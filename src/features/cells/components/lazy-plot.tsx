@@ -10,18 +10,31 @@ const VegaPlot = lazy(() => import('./vega-plot.tsx'));
  * A plot that loads the vega libraries only once it scrolls into view (IntersectionObserver);
  * until then, and while they load, a placeholder of the same height holds its place.
  */
-export function LazyPlot({ spec, label, height = 340, onClickDatum }: { spec: TopLevelSpec; label: string; height?: number; onClickDatum?: PlotClick }) {
+export function LazyPlot({
+  spec,
+  label,
+  height = 340,
+  onClickDatum,
+}: {
+  spec: TopLevelSpec;
+  label: string;
+  height?: number;
+  onClickDatum?: PlotClick;
+}) {
   const ref = useRef<HTMLDivElement>(null);
   const [visible, setVisible] = useState(typeof IntersectionObserver === 'undefined');
   useEffect(() => {
     const el = ref.current;
     if (!el || visible) return;
-    const io = new IntersectionObserver((entries) => {
-      if (entries.some((e) => e.isIntersecting)) {
-        setVisible(true);
-        io.disconnect();
-      }
-    }, { rootMargin: '200px' });
+    const io = new IntersectionObserver(
+      (entries) => {
+        if (entries.some((e) => e.isIntersecting)) {
+          setVisible(true);
+          io.disconnect();
+        }
+      },
+      { rootMargin: '200px' },
+    );
     io.observe(el);
     return () => io.disconnect();
   }, [visible]);

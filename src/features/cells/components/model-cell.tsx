@@ -1,5 +1,10 @@
 import { useEffect, useMemo, useState } from 'react';
-import { checkCellInput, toEngineModel, type FieldProblem, type ModelCellInput } from '@shared/cells/inputs.ts';
+import {
+  checkCellInput,
+  toEngineModel,
+  type FieldProblem,
+  type ModelCellInput,
+} from '@shared/cells/inputs.ts';
 import { cn } from '@/components/ui/cn.ts';
 import { controlClass } from '@/components/ui/input.tsx';
 import { KatexBlock } from './katex-block.tsx';
@@ -41,9 +46,15 @@ function EquationsPreview({ input }: { input: Row }) {
   }, [key]);
   const params = parameters
     .filter((p) => str(p.name))
-    .map((p) => `${symbolTex(str(p.name))} = ${typeof p.value === 'number' ? p.value : '\\text{?}'}${str(p.unit) ? `\\,\\mathrm{${str(p.unit).replace(/[{}\\]/g, '')}}` : ''}`)
+    .map(
+      (p) =>
+        `${symbolTex(str(p.name))} = ${typeof p.value === 'number' ? p.value : '\\text{?}'}${str(p.unit) ? `\\,\\mathrm{${str(p.unit).replace(/[{}\\]/g, '')}}` : ''}`,
+    )
     .join(',\\quad ');
-  if (!tex) return <p className="py-3 text-center text-sm text-ink-muted">The equations appear here as you write them.</p>;
+  if (!tex)
+    return (
+      <p className="py-3 text-center text-sm text-ink-muted">The equations appear here as you write them.</p>
+    );
   return (
     <div className="py-2" data-testid="model-equations">
       <KatexBlock latex={tex} />
@@ -52,7 +63,23 @@ function EquationsPreview({ input }: { input: Row }) {
   );
 }
 
-function TextCell({ value, onValue, error, placeholder, label, mono = true, className }: { value: unknown; onValue: (v: string) => void; error?: string; placeholder?: string; label: string; mono?: boolean; className?: string }) {
+function TextCell({
+  value,
+  onValue,
+  error,
+  placeholder,
+  label,
+  mono = true,
+  className,
+}: {
+  value: unknown;
+  onValue: (v: string) => void;
+  error?: string;
+  placeholder?: string;
+  label: string;
+  mono?: boolean;
+  className?: string;
+}) {
   return (
     <div className={cn('min-w-0', className)}>
       <input
@@ -72,7 +99,13 @@ function TextCell({ value, onValue, error, placeholder, label, mono = true, clas
 
 function RemoveButton({ label, onClick }: { label: string; onClick: () => void }) {
   return (
-    <button type="button" aria-label={label} title={label} onClick={onClick} className="h-8 w-8 rounded-sm text-ink-muted hover:bg-unstable-soft hover:text-unstable">
+    <button
+      type="button"
+      aria-label={label}
+      title={label}
+      onClick={onClick}
+      className="h-8 w-8 rounded-sm text-ink-muted hover:bg-unstable-soft hover:text-unstable"
+    >
       ×
     </button>
   );
@@ -83,7 +116,11 @@ function SectionHead({ title, onAdd, addLabel }: { title: string; onAdd?: () => 
     <div className="mt-4 mb-1.5 flex items-center justify-between">
       <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">{title}</h4>
       {onAdd && (
-        <button type="button" onClick={onAdd} className="rounded-sm px-2 py-0.5 text-xs font-medium text-accent hover:bg-accent-soft">
+        <button
+          type="button"
+          onClick={onAdd}
+          className="rounded-sm px-2 py-0.5 text-xs font-medium text-accent hover:bg-accent-soft"
+        >
           + {addLabel}
         </button>
       )}
@@ -96,7 +133,15 @@ function SectionHead({ title, onAdd, addLabel }: { title: string; onAdd?: () => 
  * definitions. Each field is checked as it is typed — first its shape, then (after a pause) by
  * the engine's parser — and the message sits under the field.
  */
-export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange: (next: Row) => void; readOnly: boolean }) {
+export function ModelCell({
+  input,
+  onChange,
+  readOnly,
+}: {
+  input: Row;
+  onChange: (next: Row) => void;
+  readOnly: boolean;
+}) {
   const { validateModel } = useCellsRuntime();
   const local = useMemo(() => checkCellInput('model', input), [input]);
   // The engine's answer, remembered with the model it was about (so a stale answer never shows).
@@ -109,7 +154,12 @@ export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange:
     const controller = new AbortController();
     const timer = setTimeout(() => {
       validateModel(JSON.parse(modelJson), controller.signal)
-        .then((errs) => setEngineCheck({ model: modelJson, problems: errs.map((e) => ({ ...e, path: e.path.replace(/^model\./, '') })) }))
+        .then((errs) =>
+          setEngineCheck({
+            model: modelJson,
+            problems: errs.map((e) => ({ ...e, path: e.path.replace(/^model\./, '') })),
+          }),
+        )
         .catch(() => undefined);
     }, 450);
     return () => {
@@ -123,8 +173,10 @@ export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange:
   const set = (patch: Row) => onChange({ ...input, ...patch });
   const setRow = (list: 'variables' | 'parameters' | 'definitions', i: number, patch: Row) =>
     set({ [list]: rows(input[list]).map((r, k) => (k === i ? { ...r, ...patch } : r)) });
-  const addRow = (list: 'variables' | 'parameters' | 'definitions', row: Row) => set({ [list]: [...rows(input[list]), row] });
-  const removeRow = (list: 'variables' | 'parameters' | 'definitions', i: number) => set({ [list]: rows(input[list]).filter((_, k) => k !== i) });
+  const addRow = (list: 'variables' | 'parameters' | 'definitions', row: Row) =>
+    set({ [list]: [...rows(input[list]), row] });
+  const removeRow = (list: 'variables' | 'parameters' | 'definitions', i: number) =>
+    set({ [list]: rows(input[list]).filter((_, k) => k !== i) });
 
   const typed = input as ModelCellInput;
   return (
@@ -132,53 +184,145 @@ export function ModelCell({ input, onChange, readOnly }: { input: Row; onChange:
       <EquationsPreview input={input} />
       {!readOnly && (
         <div className="mt-2 border-t border-rule pt-3">
-          <TextCell className="max-w-lg" label="Model name" value={typed.name} onValue={(v) => set({ name: v })} error={err('name')} placeholder="Name, e.g. Stirred tank, first-order reaction" mono={false} />
-          {err('variables') && !err('variables[0]') && <p className="mt-1 text-xs font-medium text-unstable">{err('variables')}</p>}
+          <TextCell
+            className="max-w-lg"
+            label="Model name"
+            value={typed.name}
+            onValue={(v) => set({ name: v })}
+            error={err('name')}
+            placeholder="Name, e.g. Stirred tank, first-order reaction"
+            mono={false}
+          />
+          {err('variables') && !err('variables[0]') && (
+            <p className="mt-1 text-xs font-medium text-unstable">{err('variables')}</p>
+          )}
 
-          <SectionHead title="State variables and right-hand sides" addLabel="variable" onAdd={() => addRow('variables', { name: '', rhs: '' })} />
+          <SectionHead
+            title="State variables and right-hand sides"
+            addLabel="variable"
+            onAdd={() => addRow('variables', { name: '', rhs: '' })}
+          />
           <div className="space-y-1.5">
             {rows(input.variables).map((v, i) => (
               <div key={i} className="grid grid-cols-[7rem_auto_1fr_6rem_2rem] items-start gap-2">
-                <TextCell label={`Variable ${i + 1} name`} value={v.name} onValue={(s) => setRow('variables', i, { name: s })} error={err(`variables[${i}].name`)} placeholder="x" />
+                <TextCell
+                  label={`Variable ${i + 1} name`}
+                  value={v.name}
+                  onValue={(s) => setRow('variables', i, { name: s })}
+                  error={err(`variables[${i}].name`)}
+                  placeholder="x"
+                />
                 <span className="pt-1.5 font-serif text-sm text-ink-muted">′ =</span>
-                <TextCell label={`Right-hand side of ${str(v.name) || `variable ${i + 1}`}`} value={v.rhs} onValue={(s) => setRow('variables', i, { rhs: s })} error={err(`variables[${i}].rhs`)} placeholder="mu - x^2" />
-                <TextCell label={`Unit of ${str(v.name) || `variable ${i + 1}`}`} value={v.unit} onValue={(s) => setRow('variables', i, { unit: s || undefined })} error={err(`variables[${i}].unit`)} placeholder="unit" mono={false} />
-                <RemoveButton label={`Remove variable ${str(v.name) || i + 1}`} onClick={() => removeRow('variables', i)} />
+                <TextCell
+                  label={`Right-hand side of ${str(v.name) || `variable ${i + 1}`}`}
+                  value={v.rhs}
+                  onValue={(s) => setRow('variables', i, { rhs: s })}
+                  error={err(`variables[${i}].rhs`)}
+                  placeholder="mu - x^2"
+                />
+                <TextCell
+                  label={`Unit of ${str(v.name) || `variable ${i + 1}`}`}
+                  value={v.unit}
+                  onValue={(s) => setRow('variables', i, { unit: s || undefined })}
+                  error={err(`variables[${i}].unit`)}
+                  placeholder="unit"
+                  mono={false}
+                />
+                <RemoveButton
+                  label={`Remove variable ${str(v.name) || i + 1}`}
+                  onClick={() => removeRow('variables', i)}
+                />
               </div>
             ))}
           </div>
 
-          <SectionHead title="Parameters" addLabel="parameter" onAdd={() => addRow('parameters', { name: '', value: 0 })} />
+          <SectionHead
+            title="Parameters"
+            addLabel="parameter"
+            onAdd={() => addRow('parameters', { name: '', value: 0 })}
+          />
           <div className="space-y-1.5">
             {rows(input.parameters).map((p, i) => (
               <div key={i} className="grid grid-cols-[7rem_auto_8rem_6rem_1fr_2rem] items-start gap-2">
-                <TextCell label={`Parameter ${i + 1} name`} value={p.name} onValue={(s) => setRow('parameters', i, { name: s })} error={err(`parameters[${i}].name`)} placeholder="mu" />
+                <TextCell
+                  label={`Parameter ${i + 1} name`}
+                  value={p.name}
+                  onValue={(s) => setRow('parameters', i, { name: s })}
+                  error={err(`parameters[${i}].name`)}
+                  placeholder="mu"
+                />
                 <span className="pt-1.5 font-serif text-sm text-ink-muted">=</span>
                 <div className="min-w-0">
-                  <NumberInput aria-label={`Value of ${str(p.name) || `parameter ${i + 1}`}`} aria-invalid={err(`parameters[${i}].value`) ? true : undefined} value={p.value} onValue={(n) => setRow('parameters', i, { value: n })} />
-                  {err(`parameters[${i}].value`) && <p className="mt-0.5 text-xs font-medium text-unstable">{err(`parameters[${i}].value`)}</p>}
+                  <NumberInput
+                    aria-label={`Value of ${str(p.name) || `parameter ${i + 1}`}`}
+                    aria-invalid={err(`parameters[${i}].value`) ? true : undefined}
+                    value={p.value}
+                    onValue={(n) => setRow('parameters', i, { value: n })}
+                  />
+                  {err(`parameters[${i}].value`) && (
+                    <p className="mt-0.5 text-xs font-medium text-unstable">
+                      {err(`parameters[${i}].value`)}
+                    </p>
+                  )}
                 </div>
-                <TextCell label={`Unit of ${str(p.name) || `parameter ${i + 1}`}`} value={p.unit} onValue={(s) => setRow('parameters', i, { unit: s || undefined })} placeholder="unit" mono={false} />
-                <TextCell label={`Note on ${str(p.name) || `parameter ${i + 1}`}`} value={p.note} onValue={(s) => setRow('parameters', i, { note: s || undefined })} placeholder="note" mono={false} />
-                <RemoveButton label={`Remove parameter ${str(p.name) || i + 1}`} onClick={() => removeRow('parameters', i)} />
+                <TextCell
+                  label={`Unit of ${str(p.name) || `parameter ${i + 1}`}`}
+                  value={p.unit}
+                  onValue={(s) => setRow('parameters', i, { unit: s || undefined })}
+                  placeholder="unit"
+                  mono={false}
+                />
+                <TextCell
+                  label={`Note on ${str(p.name) || `parameter ${i + 1}`}`}
+                  value={p.note}
+                  onValue={(s) => setRow('parameters', i, { note: s || undefined })}
+                  placeholder="note"
+                  mono={false}
+                />
+                <RemoveButton
+                  label={`Remove parameter ${str(p.name) || i + 1}`}
+                  onClick={() => removeRow('parameters', i)}
+                />
               </div>
             ))}
           </div>
 
-          <SectionHead title="Definitions (used in the right-hand sides)" addLabel="definition" onAdd={() => addRow('definitions', { name: '', expression: '' })} />
+          <SectionHead
+            title="Definitions (used in the right-hand sides)"
+            addLabel="definition"
+            onAdd={() => addRow('definitions', { name: '', expression: '' })}
+          />
           <div className="space-y-1.5">
             {rows(input.definitions).map((d, i) => (
               <div key={i} className="grid grid-cols-[7rem_auto_1fr_2rem] items-start gap-2">
-                <TextCell label={`Definition ${i + 1} name`} value={d.name} onValue={(s) => setRow('definitions', i, { name: s })} error={err(`definitions[${i}].name`)} placeholder="r" />
+                <TextCell
+                  label={`Definition ${i + 1} name`}
+                  value={d.name}
+                  onValue={(s) => setRow('definitions', i, { name: s })}
+                  error={err(`definitions[${i}].name`)}
+                  placeholder="r"
+                />
                 <span className="pt-1.5 font-serif text-sm text-ink-muted">=</span>
-                <TextCell label={`Expression of ${str(d.name) || `definition ${i + 1}`}`} value={d.expression} onValue={(s) => setRow('definitions', i, { expression: s })} error={err(`definitions[${i}].expression`)} placeholder="k*exp(-E/T)" />
-                <RemoveButton label={`Remove definition ${str(d.name) || i + 1}`} onClick={() => removeRow('definitions', i)} />
+                <TextCell
+                  label={`Expression of ${str(d.name) || `definition ${i + 1}`}`}
+                  value={d.expression}
+                  onValue={(s) => setRow('definitions', i, { expression: s })}
+                  error={err(`definitions[${i}].expression`)}
+                  placeholder="k*exp(-E/T)"
+                />
+                <RemoveButton
+                  label={`Remove definition ${str(d.name) || i + 1}`}
+                  onClick={() => removeRow('definitions', i)}
+                />
               </div>
             ))}
           </div>
           {problems.length > 0 && (
             <p role="status" className="mt-3 text-xs text-ink-muted">
-              {problems.length === 1 ? 'One field needs attention' : `${problems.length} fields need attention`} before cells can use this model.
+              {problems.length === 1
+                ? 'One field needs attention'
+                : `${problems.length} fields need attention`}{' '}
+              before cells can use this model.
             </p>
           )}
         </div>

@@ -1,5 +1,12 @@
 import type { TopLevelSpec } from 'vega-lite';
-import type { BranchEvent, BranchPoint, ContinuationResult, FoldEvent, Stability, Values } from '@shared/engine/contract.ts';
+import type {
+  BranchEvent,
+  BranchPoint,
+  ContinuationResult,
+  FoldEvent,
+  Stability,
+  Values,
+} from '@shared/engine/contract.ts';
 import {
   formatEigenvalues,
   formatNumber,
@@ -67,7 +74,13 @@ export interface PredictionPoint {
  * to `span`. Sample spacing grows quadratically away from the fold, where the square root bends
  * most. Folds whose normal form is degenerate (a or b ≈ 0) get no prediction.
  */
-export function foldPrediction(event: FoldEvent, eventIndex: number, yVariable: string, span: number, samples = 24): PredictionPoint[] {
+export function foldPrediction(
+  event: FoldEvent,
+  eventIndex: number,
+  yVariable: string,
+  span: number,
+  samples = 24,
+): PredictionPoint[] {
   const { a, b, nullVector: v, equilibriaSide, nondegenerate } = event.normalForm;
   if (!nondegenerate || b === 0 || !(span > 0)) return [];
   const dir = equilibriaSide === 'above' ? 1 : -1;
@@ -78,8 +91,14 @@ export function foldPrediction(event: FoldEvent, eventIndex: number, yVariable: 
       const radicand = (-2 * a * delta) / b;
       const r = Math.sqrt(Math.max(0, radicand));
       const state: Values = {};
-      for (const name of Object.keys(event.state)) state[name] = event.state[name] + sign * (v[name] ?? 0) * r;
-      out.push({ event: eventIndex, sign, parameter: event.parameter + delta, y: projectState(state, yVariable) });
+      for (const name of Object.keys(event.state))
+        state[name] = event.state[name] + sign * (v[name] ?? 0) * r;
+      out.push({
+        event: eventIndex,
+        sign,
+        parameter: event.parameter + delta,
+        y: projectState(state, yVariable),
+      });
     }
   }
   return out;
@@ -107,7 +126,12 @@ export interface FlowCell {
  * the branch did not reach, and the band is left blank). Bands above the highest and below the
  * lowest equilibrium reach the plot's edge. Columns where the branch has no point are left blank.
  */
-export function flowBands(points: readonly BranchPoint[], variable: string, yDomain: [number, number], columns = 90): FlowCell[] {
+export function flowBands(
+  points: readonly BranchPoint[],
+  variable: string,
+  yDomain: [number, number],
+  columns = 90,
+): FlowCell[] {
   if (points.length < 2) return [];
   const mus = points.map((p) => p.parameter);
   const lo = Math.min(...mus);
@@ -120,7 +144,10 @@ export function flowBands(points: readonly BranchPoint[], variable: string, yDom
     const crossings = levelCrossings(mus, mu).map(({ i, t }) => {
       const p = points[i];
       const q = points[i + 1];
-      return { x: p.state[variable] + t * (q.state[variable] - p.state[variable]), stability: t < 0.5 ? p.stability : q.stability };
+      return {
+        x: p.state[variable] + t * (q.state[variable] - p.state[variable]),
+        stability: t < 0.5 ? p.stability : q.stability,
+      };
     });
     if (crossings.length === 0) continue;
     crossings.sort((m, n) => m.x - n.x);
@@ -139,7 +166,13 @@ export function flowBands(points: readonly BranchPoint[], variable: string, yDom
       const y = Math.max(band.y, yDomain[0]);
       const y2 = Math.min(band.y2, yDomain[1]);
       if (band.sign === 0 || !(y2 > y)) continue;
-      out.push({ parameter: mu - width / 2, parameter2: mu + width / 2, y, y2, sign: band.sign > 0 ? 'increasing' : 'decreasing' });
+      out.push({
+        parameter: mu - width / 2,
+        parameter2: mu + width / 2,
+        y,
+        y2,
+        sign: band.sign > 0 ? 'increasing' : 'decreasing',
+      });
     }
   }
   return out;
@@ -159,9 +192,17 @@ export interface BranchDiagramOptions {
 }
 
 /** Events in words, as the plot labels and the events table name them. */
-export const EVENT_NAMES: Record<BranchEvent['kind'], string> = { fold: 'fold', hopf: 'Hopf', 'branch-point': 'branch point' };
+export const EVENT_NAMES: Record<BranchEvent['kind'], string> = {
+  fold: 'fold',
+  hopf: 'Hopf',
+  'branch-point': 'branch point',
+};
 
-const STABILITY_LABEL: Record<Stability, string> = { stable: 'stable', unstable: 'unstable', neutral: 'neutral' };
+const STABILITY_LABEL: Record<Stability, string> = {
+  stable: 'stable',
+  unstable: 'unstable',
+  neutral: 'neutral',
+};
 
 /** The field's convention: stable solid, unstable dashed; neutral (rare, at the boundary) dotted grey. */
 const STABILITY_STYLE: Record<Stability, { color: (p: PlotPalette) => string; dash: number[] }> = {
@@ -176,19 +217,35 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
   const p = o.palette;
   const segments = splitByStability(points, o.yVariable);
   // Only the kinds present appear in the legend.
-  const kinds = (['stable', 'unstable', 'neutral'] as const).filter((k) => segments.some((seg) => seg.stability === k));
+  const kinds = (['stable', 'unstable', 'neutral'] as const).filter((k) =>
+    segments.some((seg) => seg.stability === k),
+  );
   const lineRows = segments.flatMap((s) =>
-    s.points.map((pt, order) => ({ segment: s.index, stability: STABILITY_LABEL[s.stability], mu: pt.parameter, y: pt.y, order })),
+    s.points.map((pt, order) => ({
+      segment: s.index,
+      stability: STABILITY_LABEL[s.stability],
+      mu: pt.parameter,
+      y: pt.y,
+      order,
+    })),
   );
   const yValues = lineRows.map((r) => r.y);
-  const muRange = paddedRange(points.map((pt) => pt.parameter), 0.03);
+  const muRange = paddedRange(
+    points.map((pt) => pt.parameter),
+    0.03,
+  );
   const span = 0.12 * (muRange[1] - muRange[0]);
   const folds = events.flatMap((e, i) => (e.kind === 'fold' ? [{ e, i }] : []));
   const prediction = folds.flatMap(({ e, i }) => foldPrediction(e, i, o.yVariable, span));
   const yDomain = paddedRange([...yValues, ...events.map((e) => projectState(e.state, o.yVariable))]);
   const predictionRows = prediction
     .filter((r) => r.y >= yDomain[0] && r.y <= yDomain[1])
-    .map((r) => ({ key: `${r.event}:${r.sign}`, mu: r.parameter, y: r.y, order: r.sign * (r.parameter - events[r.event].parameter) }));
+    .map((r) => ({
+      key: `${r.event}:${r.sign}`,
+      mu: r.parameter,
+      y: r.y,
+      order: r.sign * (r.parameter - events[r.event].parameter),
+    }));
 
   const hoverRows = points.map((pt, i) => ({
     index: i,
@@ -219,7 +276,9 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
     const bands = flowBands(points, o.yVariable, yDomain);
     layers.push({
       name: 'flow',
-      data: { values: bands.map((b) => ({ mu: b.parameter, mu2: b.parameter2, y: b.y, y2: b.y2, sign: b.sign })) },
+      data: {
+        values: bands.map((b) => ({ mu: b.parameter, mu2: b.parameter2, y: b.y, y2: b.y2, sign: b.sign })),
+      },
       mark: { type: 'rect', opacity: 0.55 },
       encoding: {
         x: { ...x, field: 'mu' },
@@ -231,7 +290,9 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
           type: 'nominal',
           title: `sign of ${o.yVariable}′`,
           scale: { domain: ['increasing', 'decreasing'], range: [p.flowUp, p.flowDown] },
-          legend: { labelExpr: `datum.label === 'increasing' ? '${o.yVariable}′ > 0 (rises)' : '${o.yVariable}′ < 0 (falls)'` },
+          legend: {
+            labelExpr: `datum.label === 'increasing' ? '${o.yVariable}′ > 0 (rises)' : '${o.yVariable}′ < 0 (falls)'`,
+          },
         },
       },
     });
@@ -295,7 +356,14 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
           },
         },
         {
-          mark: { type: 'text', align: 'left', dx: 8, dy: -8, fontSize: 11, font: 'IBM Plex Sans, sans-serif' },
+          mark: {
+            type: 'text',
+            align: 'left',
+            dx: 8,
+            dy: -8,
+            fontSize: 11,
+            font: 'IBM Plex Sans, sans-serif',
+          },
           encoding: {
             x,
             y,
@@ -306,5 +374,7 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
       ],
     });
   }
-  return layeredPlot(p, layers, o, { resolve: { scale: { color: 'independent' } } }) as unknown as TopLevelSpec;
+  return layeredPlot(p, layers, o, {
+    resolve: { scale: { color: 'independent' } },
+  }) as unknown as TopLevelSpec;
 }

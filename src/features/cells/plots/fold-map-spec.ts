@@ -1,7 +1,14 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { FoldCurveResult } from '@shared/engine/contract.ts';
 import { levelCrossings } from './level-crossings.ts';
-import { formatNumber, hoverLayer, layeredPlot, paddedRange, quantitativeChannel, type PlotPalette } from './plot-palette.ts';
+import {
+  formatNumber,
+  hoverLayer,
+  layeredPlot,
+  paddedRange,
+  quantitativeChannel,
+  type PlotPalette,
+} from './plot-palette.ts';
 
 export interface RegionBand {
   x: number;
@@ -23,9 +30,19 @@ export interface RegionBand {
  * side, up to the next crossing or the edge of the plot. Crossings whose normal form is
  * degenerate (b = 0, at the cusp itself) are skipped.
  */
-export function bistableBands(curve: FoldCurveResult['curve'], p1: string, p2: string, xDomain: [number, number], rows = 120): RegionBand[] {
+export function bistableBands(
+  curve: FoldCurveResult['curve'],
+  p1: string,
+  p2: string,
+  xDomain: [number, number],
+  rows = 120,
+): RegionBand[] {
   const pts = curve.points
-    .map((q) => ({ x: q.parameters[p1], y: q.parameters[p2], side: q.normalForm.b === 0 ? 0 : Math.sign(-q.normalForm.a / q.normalForm.b) }))
+    .map((q) => ({
+      x: q.parameters[p1],
+      y: q.parameters[p2],
+      side: q.normalForm.b === 0 ? 0 : Math.sign(-q.normalForm.a / q.normalForm.b),
+    }))
     .filter((q) => Number.isFinite(q.x) && Number.isFinite(q.y));
   if (pts.length < 2) return [];
   const ys = pts.map((q) => q.y);
@@ -65,7 +82,11 @@ export interface FoldMapOptions {
 }
 
 /** Vega-lite spec of a fold map: the fold curve in (p₁, p₂), cusps marked, the bistable region shaded. */
-export function foldMapSpec(result: FoldCurveResult, parameters: readonly [string, string], o: FoldMapOptions): TopLevelSpec {
+export function foldMapSpec(
+  result: FoldCurveResult,
+  parameters: readonly [string, string],
+  o: FoldMapOptions,
+): TopLevelSpec {
   const [p1, p2] = parameters;
   const p = o.palette;
   const curve = result.curve;
@@ -126,8 +147,14 @@ export function foldMapSpec(result: FoldCurveResult, parameters: readonly [strin
       name: 'cusps',
       data: { values: cusps },
       layer: [
-        { mark: { type: 'point', shape: 'triangle-up', filled: true, size: 140, color: p.unstable }, encoding: { x, y, tooltip: { field: 'label' } } },
-        { mark: { type: 'text', align: 'left', dx: 9, dy: -9, fontSize: 11, color: p.ink }, encoding: { x, y, text: { field: 'label' } } },
+        {
+          mark: { type: 'point', shape: 'triangle-up', filled: true, size: 140, color: p.unstable },
+          encoding: { x, y, tooltip: { field: 'label' } },
+        },
+        {
+          mark: { type: 'text', align: 'left', dx: 9, dy: -9, fontSize: 11, color: p.ink },
+          encoding: { x, y, text: { field: 'label' } },
+        },
       ],
     });
   }

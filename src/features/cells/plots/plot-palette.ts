@@ -53,7 +53,14 @@ export function readPlotPalette(el: Element = document.documentElement): PlotPal
     flowUp: v('--bf-accent-soft', d.flowUp),
     flowDown: v('--bf-warning-soft', d.flowDown),
     region: v('--bf-accent-soft', d.region),
-    series: [v('--bf-stable', d.series[0]), v('--bf-unstable', d.series[1]), v('--bf-accent', d.series[2]), v('--bf-warning', d.series[3]), d.series[4], v('--bf-success', d.series[5])],
+    series: [
+      v('--bf-stable', d.series[0]),
+      v('--bf-unstable', d.series[1]),
+      v('--bf-accent', d.series[2]),
+      v('--bf-warning', d.series[3]),
+      d.series[4],
+      v('--bf-success', d.series[5]),
+    ],
   };
 }
 
@@ -76,7 +83,13 @@ export function plotConfig(p: PlotPalette) {
       titleFontSize: 12,
       titleFontWeight: 500,
     },
-    legend: { labelColor: p.ink, titleColor: p.muted, labelFontSize: 11, orient: 'top' as const, direction: 'horizontal' as const },
+    legend: {
+      labelColor: p.ink,
+      titleColor: p.muted,
+      labelFontSize: 11,
+      orient: 'top' as const,
+      direction: 'horizontal' as const,
+    },
     text: { color: p.ink },
   };
 }
@@ -133,14 +146,21 @@ export function hoverLayer(values: object[], x: object, y: object, tooltip: Tool
       x,
       y,
       tooltip: tooltip.map((t) =>
-        t.number ? { field: t.field, type: 'quantitative', title: t.title, format: '.5~g' } : { field: t.field, type: 'nominal', title: t.title },
+        t.number
+          ? { field: t.field, type: 'quantitative', title: t.title, format: '.5~g' }
+          : { field: t.field, type: 'nominal', title: t.title },
       ),
     },
   };
 }
 
 /** A layered plot with the house look. */
-export function layeredPlot(p: PlotPalette, layers: object[], size: { width?: number | 'container'; height?: number }, extra: object = {}) {
+export function layeredPlot(
+  p: PlotPalette,
+  layers: object[],
+  size: { width?: number | 'container'; height?: number },
+  extra: object = {},
+) {
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     width: size.width ?? 'container',

@@ -19,7 +19,11 @@ export interface TrajectoryOptions {
 }
 
 /** Time series of every variable, one coloured line each. */
-export function timeSeriesSpec(result: SimulateResult, variables: readonly string[], o: TrajectoryOptions): TopLevelSpec {
+export function timeSeriesSpec(
+  result: SimulateResult,
+  variables: readonly string[],
+  o: TrajectoryOptions,
+): TopLevelSpec {
   const { t, state } = result.trajectory;
   const idx = thinIndices(t.length);
   const names = variables.filter((v) => state[v]);
@@ -33,8 +37,18 @@ export function timeSeriesSpec(result: SimulateResult, variables: readonly strin
     mark: { type: 'line', strokeWidth: 1.8 },
     encoding: {
       x: { field: 't', type: 'quantitative', title: 'time', scale: { nice: false } },
-      y: { field: 'value', type: 'quantitative', title: names.length === 1 ? names[0] : 'state', scale: { zero: false } },
-      color: { field: 'variable', type: 'nominal', title: null, scale: { domain: names, range: o.palette.series } },
+      y: {
+        field: 'value',
+        type: 'quantitative',
+        title: names.length === 1 ? names[0] : 'state',
+        scale: { zero: false },
+      },
+      color: {
+        field: 'variable',
+        type: 'nominal',
+        title: null,
+        scale: { domain: names, range: o.palette.series },
+      },
       tooltip: [
         { field: 't', type: 'quantitative', format: '.4~g', title: 'time' },
         { field: 'variable', type: 'nominal' },
@@ -45,13 +59,24 @@ export function timeSeriesSpec(result: SimulateResult, variables: readonly strin
 }
 
 /** The path in the plane of two variables, with its start (circle) and end (square) marked. */
-export function phasePlaneSpec(result: SimulateResult, xVar: string, yVar: string, o: TrajectoryOptions): TopLevelSpec {
+export function phasePlaneSpec(
+  result: SimulateResult,
+  xVar: string,
+  yVar: string,
+  o: TrajectoryOptions,
+): TopLevelSpec {
   const { t, state } = result.trajectory;
   const xs = state[xVar] ?? [];
   const ys = state[yVar] ?? [];
   const idx = thinIndices(Math.min(xs.length, ys.length));
   const rows = idx.map((i, order) => ({ order, t: t[i], x: xs[i], y: ys[i] }));
-  const ends = rows.length > 0 ? [{ ...rows[0], which: 'start' }, { ...rows[rows.length - 1], which: 'end' }] : [];
+  const ends =
+    rows.length > 0
+      ? [
+          { ...rows[0], which: 'start' },
+          { ...rows[rows.length - 1], which: 'end' },
+        ]
+      : [];
   const x = quantitativeChannel('x', xVar, paddedRange(rows.map((r) => r.x)));
   const y = quantitativeChannel('y', yVar, paddedRange(rows.map((r) => r.y)));
   return {
@@ -71,8 +96,18 @@ export function phasePlaneSpec(result: SimulateResult, xVar: string, yVar: strin
         encoding: {
           x,
           y,
-          shape: { field: 'which', type: 'nominal', title: null, scale: { domain: ['start', 'end'], range: ['circle', 'square'] } },
-          color: { field: 'which', type: 'nominal', title: null, scale: { domain: ['start', 'end'], range: [o.palette.accent, o.palette.unstable] } },
+          shape: {
+            field: 'which',
+            type: 'nominal',
+            title: null,
+            scale: { domain: ['start', 'end'], range: ['circle', 'square'] },
+          },
+          color: {
+            field: 'which',
+            type: 'nominal',
+            title: null,
+            scale: { domain: ['start', 'end'], range: [o.palette.accent, o.palette.unstable] },
+          },
           tooltip: [
             { field: 'which', type: 'nominal', title: 'point' },
             { field: 't', type: 'quantitative', format: '.4~g', title: 'time' },

@@ -1,6 +1,12 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import type { CellOutputs } from '@shared/cells/output.ts';
-import { cellFreshness, needsRun, resolveFromCells, type Freshness, type ResolvedRequest } from '@shared/cells/resolve.ts';
+import {
+  cellFreshness,
+  needsRun,
+  resolveFromCells,
+  type Freshness,
+  type ResolvedRequest,
+} from '@shared/cells/resolve.ts';
 import { isAnalysisKind } from '@shared/cells/kinds.ts';
 import type { FieldProblem } from '@shared/cells/inputs.ts';
 import { extractCells, type DocumentJson } from '@shared/editor/document.ts';
@@ -94,7 +100,9 @@ export function useCellRunner(o: CellRunnerOptions): CellsRuntime {
   const cancel = useCallback((cellId: string) => controllers.current.get(cellId)?.abort(), []);
   const runAllStale = useCallback(() => {
     void (async () => {
-      const order = cellsRef.current.filter((c) => isAnalysisKind(c.kind) && needsRun(freshRef.current[c.id] ?? 'never-run'));
+      const order = cellsRef.current.filter(
+        (c) => isAnalysisKind(c.kind) && needsRun(freshRef.current[c.id] ?? 'never-run'),
+      );
       for (const c of order) await runOne(c.id);
     })();
   }, [runOne]);
@@ -104,5 +112,19 @@ export function useCellRunner(o: CellRunnerOptions): CellsRuntime {
     return () => map.forEach((c) => c.abort());
   }, []);
 
-  return { readOnly, doc, cells, outputs, running, freshness, problems, runErrors, cached, run, cancel, runAllStale, validateModel };
+  return {
+    readOnly,
+    doc,
+    cells,
+    outputs,
+    running,
+    freshness,
+    problems,
+    runErrors,
+    cached,
+    run,
+    cancel,
+    runAllStale,
+    validateModel,
+  };
 }

@@ -14,7 +14,21 @@ type ToolbarProps = {
 };
 
 /** A toolbar button; its visible text is its name, or `label` when it shows only a symbol. */
-function Tool({ label, active, onClick, children, disabled, symbol }: { label: string; active?: boolean; onClick: () => void; children: React.ReactNode; disabled?: boolean; symbol?: boolean }) {
+function Tool({
+  label,
+  active,
+  onClick,
+  children,
+  disabled,
+  symbol,
+}: {
+  label: string;
+  active?: boolean;
+  onClick: () => void;
+  children: React.ReactNode;
+  disabled?: boolean;
+  symbol?: boolean;
+}) {
   return (
     <button
       type="button"
@@ -67,7 +81,11 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
   };
 
   return (
-    <div role="toolbar" aria-label="Formatting" className="sticky top-0 z-30 flex flex-wrap items-center gap-0.5 border-b border-rule bg-surface/95 px-2 py-1.5 backdrop-blur">
+    <div
+      role="toolbar"
+      aria-label="Formatting"
+      className="sticky top-0 z-30 flex flex-wrap items-center gap-0.5 border-b border-rule bg-surface/95 px-2 py-1.5 backdrop-blur"
+    >
       <Tool symbol label="Bold" active={state.bold} onClick={() => c().toggleBold().run()}>
         <b>B</b>
       </Tool>
@@ -80,7 +98,11 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
       <Tool symbol label="Code" active={state.code} onClick={() => c().toggleCode().run()}>
         <span className="font-mono text-xs">{'</>'}</span>
       </Tool>
-      <Tool label="Link" active={state.link} onClick={() => (state.link ? c().unsetLink().run() : setLinkOpen(true))}>
+      <Tool
+        label="Link"
+        active={state.link}
+        onClick={() => (state.link ? c().unsetLink().run() : setLinkOpen(true))}
+      >
         <span className="underline">link</span>
       </Tool>
       <Sep />
@@ -123,11 +145,21 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
         ↷
       </Tool>
       <div className="relative ml-auto">
-        <Button size="sm" variant="secondary" aria-haspopup="menu" aria-expanded={menu} onClick={() => setMenu((m) => !m)}>
+        <Button
+          size="sm"
+          variant="secondary"
+          aria-haspopup="menu"
+          aria-expanded={menu}
+          onClick={() => setMenu((m) => !m)}
+        >
           + Add cell
         </Button>
         {menu && (
-          <div role="menu" className="absolute right-0 z-40 mt-1 w-80 rounded-md border border-rule bg-surface p-1 shadow-xl" onKeyDown={(e) => e.key === 'Escape' && setMenu(false)}>
+          <div
+            role="menu"
+            className="absolute right-0 z-40 mt-1 w-80 rounded-md border border-rule bg-surface p-1 shadow-xl"
+            onKeyDown={(e) => e.key === 'Escape' && setMenu(false)}
+          >
             {CELL_KINDS.map((kind) => (
               <button
                 key={kind}
@@ -143,13 +175,29 @@ export function EditorToolbar({ editor, createCellInput }: ToolbarProps) {
           </div>
         )}
       </div>
-      <LinkDialog open={linkOpen} onClose={() => setLinkOpen(false)} onSubmit={(href) => c().extendMarkRange('link').setLink({ href }).run()} />
-      <ImageDialog open={imageOpen} onClose={() => setImageOpen(false)} onSubmit={(src, alt) => c().insertImage({ src, alt }).run()} />
+      <LinkDialog
+        open={linkOpen}
+        onClose={() => setLinkOpen(false)}
+        onSubmit={(href) => c().extendMarkRange('link').setLink({ href }).run()}
+      />
+      <ImageDialog
+        open={imageOpen}
+        onClose={() => setImageOpen(false)}
+        onSubmit={(src, alt) => c().insertImage({ src, alt }).run()}
+      />
     </div>
   );
 }
 
-function LinkDialog({ open, onClose, onSubmit }: { open: boolean; onClose: () => void; onSubmit: (href: string) => void }) {
+function LinkDialog({
+  open,
+  onClose,
+  onSubmit,
+}: {
+  open: boolean;
+  onClose: () => void;
+  onSubmit: (href: string) => void;
+}) {
   const [href, setHref] = useState('');
   const [error, setError] = useState<string>();
   return (
@@ -182,12 +230,25 @@ function LinkDialog({ open, onClose, onSubmit }: { open: boolean; onClose: () =>
   );
 }
 
-function ImageDialog({ open, onClose, onSubmit }: { open: boolean; onClose: () => void; onSubmit: (src: string, alt: string) => void }) {
+function ImageDialog({
+  open,
+  onClose,
+  onSubmit,
+}: {
+  open: boolean;
+  onClose: () => void;
+  onSubmit: (src: string, alt: string) => void;
+}) {
   const [src, setSrc] = useState('');
   const [alt, setAlt] = useState('');
   const [error, setError] = useState<string>();
   return (
-    <Dialog open={open} onClose={onClose} title="Picture" description="A picture from an address; describe it for readers who cannot see it.">
+    <Dialog
+      open={open}
+      onClose={onClose}
+      title="Picture"
+      description="A picture from an address; describe it for readers who cannot see it."
+    >
       <form
         onSubmit={(e) => {
           e.preventDefault();
@@ -207,7 +268,11 @@ function ImageDialog({ open, onClose, onSubmit }: { open: boolean; onClose: () =
           <Input value={src} onChange={(e) => setSrc(e.target.value)} placeholder="https://" autoFocus />
         </Field>
         <Field label="Description">
-          <Input value={alt} onChange={(e) => setAlt(e.target.value)} placeholder="Phase portrait at μ = 0.3" />
+          <Input
+            value={alt}
+            onChange={(e) => setAlt(e.target.value)}
+            placeholder="Phase portrait at μ = 0.3"
+          />
         </Field>
         <div className="flex justify-end gap-2">
           <Button variant="secondary" onClick={onClose}>

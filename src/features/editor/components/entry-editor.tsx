@@ -19,7 +19,15 @@ type EntryEditorProps = {
 };
 
 /** The rich-text body of an entry, with maths, pictures and computation cells. */
-export function EntryEditor({ initialContent, editable, onChange, cellView, createCellInput, onEditor, label = 'Entry body' }: EntryEditorProps) {
+export function EntryEditor({
+  initialContent,
+  editable,
+  onChange,
+  cellView,
+  createCellInput,
+  onEditor,
+  label = 'Entry body',
+}: EntryEditorProps) {
   const onChangeRef = useRef(onChange);
   useEffect(() => {
     onChangeRef.current = onChange;

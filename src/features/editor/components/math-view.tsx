@@ -39,7 +39,11 @@ export function MathView({ node, updateAttributes, deleteNode, editor, selected 
   const Tag = display ? 'div' : 'span';
 
   return (
-    <NodeViewWrapper as={Tag} className={cn(display ? 'my-4 block' : 'inline', 'relative')} data-math={display ? 'display' : 'inline'}>
+    <NodeViewWrapper
+      as={Tag}
+      className={cn(display ? 'my-4 block' : 'inline', 'relative')}
+      data-math={display ? 'display' : 'inline'}
+    >
       <Tag
         role={editor.isEditable ? 'button' : undefined}
         tabIndex={editor.isEditable ? 0 : undefined}
@@ -102,7 +106,13 @@ export function MathView({ node, updateAttributes, deleteNode, editor, selected 
             />
           )}
           <span className="mt-1 block text-xs text-ink-muted">
-            {preview.error ? <span className="text-unstable">{preview.error}</span> : display ? 'Ctrl+Enter to keep, Escape to cancel' : 'Enter to keep, Escape to cancel'}
+            {preview.error ? (
+              <span className="text-unstable">{preview.error}</span>
+            ) : display ? (
+              'Ctrl+Enter to keep, Escape to cancel'
+            ) : (
+              'Enter to keep, Escape to cancel'
+            )}
           </span>
         </span>
       )}

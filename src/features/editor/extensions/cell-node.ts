@@ -39,8 +39,16 @@ export const CellNode = Node.create<CellNodeOptions>({
   isolating: true,
   addOptions: () => ({ view: null }),
   addAttributes: () => ({
-    id: { default: null, parseHTML: (el) => el.getAttribute('data-cell-id'), renderHTML: (a) => ({ 'data-cell-id': a.id as string }) },
-    kind: { default: 'model', parseHTML: (el) => el.getAttribute('data-kind'), renderHTML: (a) => ({ 'data-kind': a.kind as string }) },
+    id: {
+      default: null,
+      parseHTML: (el) => el.getAttribute('data-cell-id'),
+      renderHTML: (a) => ({ 'data-cell-id': a.id as string }),
+    },
+    kind: {
+      default: 'model',
+      parseHTML: (el) => el.getAttribute('data-kind'),
+      renderHTML: (a) => ({ 'data-kind': a.kind as string }),
+    },
     input: {
       default: {},
       parseHTML: (el) => {
@@ -66,7 +74,10 @@ export const CellNode = Node.create<CellNodeOptions>({
       insertCell:
         (kind, input) =>
         ({ state, commands }) =>
-          commands.insertContentAt(blockInsertPosition(state), { type: this.name, attrs: { id: newCellId(), kind, input } }),
+          commands.insertContentAt(blockInsertPosition(state), {
+            type: this.name,
+            attrs: { id: newCellId(), kind, input },
+          }),
       moveCell:
         (pos, direction) =>
         ({ state, tr, dispatch }) => {
@@ -78,11 +89,17 @@ export const CellNode = Node.create<CellNodeOptions>({
           if (direction === 'up') {
             if (index === 0) return false;
             const prev = parent.child(index - 1);
-            if (dispatch) tr.delete(pos, pos + node.nodeSize).insert(pos - prev.nodeSize, node).scrollIntoView();
+            if (dispatch)
+              tr.delete(pos, pos + node.nodeSize)
+                .insert(pos - prev.nodeSize, node)
+                .scrollIntoView();
           } else {
             if (index + 1 >= parent.childCount) return false;
             const next = parent.child(index + 1);
-            if (dispatch) tr.delete(pos, pos + node.nodeSize).insert(pos + next.nodeSize, node).scrollIntoView();
+            if (dispatch)
+              tr.delete(pos, pos + node.nodeSize)
+                .insert(pos + next.nodeSize, node)
+                .scrollIntoView();
           }
           return true;
         },
@@ -91,7 +108,11 @@ export const CellNode = Node.create<CellNodeOptions>({
         ({ state, tr, dispatch }) => {
           const node = state.doc.nodeAt(pos);
           if (!node || node.type.name !== this.name) return false;
-          const copy = node.type.create({ ...node.attrs, id: newCellId(), input: structuredClone(node.attrs.input) });
+          const copy = node.type.create({
+            ...node.attrs,
+            id: newCellId(),
+            input: structuredClone(node.attrs.input),
+          });
           if (dispatch) tr.insert(pos + node.nodeSize, copy);
           return true;
         },
@@ -115,7 +136,8 @@ export const CellNode = Node.create<CellNodeOptions>({
           });
           if (fixes.length === 0) return null;
           const tr = state.tr;
-          for (const { pos, node } of fixes) tr.setNodeMarkup(pos, undefined, { ...node.attrs, id: newCellId() });
+          for (const { pos, node } of fixes)
+            tr.setNodeMarkup(pos, undefined, { ...node.attrs, id: newCellId() });
           return tr;
         },
       }),

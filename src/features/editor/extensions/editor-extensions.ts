@@ -14,10 +14,18 @@ export function editorExtensions(cellView: ComponentType<ReactNodeViewProps> | n
   return [
     StarterKit.configure({
       heading: { levels: [1, 2, 3, 4] },
-      link: { openOnClick: false, autolink: true, defaultProtocol: 'https', protocols: ['http', 'https', 'mailto'] },
+      link: {
+        openOnClick: false,
+        autolink: true,
+        defaultProtocol: 'https',
+        protocols: ['http', 'https', 'mailto'],
+      },
     }),
     Placeholder.configure({
-      placeholder: ({ node }) => (node.type.name === 'heading' ? 'Heading' : 'Write here. Type $…$ for maths, $$ and a space for an equation.'),
+      placeholder: ({ node }) =>
+        node.type.name === 'heading'
+          ? 'Heading'
+          : 'Write here. Type $…$ for maths, $$ and a space for an equation.',
     }),
     InlineMath,
     DisplayMath,

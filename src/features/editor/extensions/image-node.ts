@@ -19,7 +19,10 @@ export const ImageNode = Node.create({
   parseHTML: () => [{ tag: 'img[src]' }],
   renderHTML: ({ HTMLAttributes }) => [
     'img',
-    mergeAttributes(HTMLAttributes, { class: 'mx-auto my-4 max-h-[28rem] rounded-md border border-rule', loading: 'lazy' }),
+    mergeAttributes(HTMLAttributes, {
+      class: 'mx-auto my-4 max-h-[28rem] rounded-md border border-rule',
+      loading: 'lazy',
+    }),
   ],
   addCommands() {
     return {

@@ -11,7 +11,8 @@ export function blockInsertPosition(state: EditorState): { from: number; to: num
   const $from = selection.$from;
   if ($from.depth === 0) return { from: selection.to, to: selection.to };
   const parent = $from.parent;
-  if (parent.isTextblock && parent.content.size === 0 && $from.depth === 1) return { from: $from.before(1), to: $from.after(1) };
+  if (parent.isTextblock && parent.content.size === 0 && $from.depth === 1)
+    return { from: $from.before(1), to: $from.after(1) };
   const after = $from.after(1);
   return { from: after, to: after };
 }

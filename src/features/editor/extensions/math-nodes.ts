@@ -34,7 +34,11 @@ export const InlineMath = Node.create({
   selectable: true,
   addAttributes: () => latexAttr,
   parseHTML: () => [{ tag: 'span[data-inline-math]' }],
-  renderHTML: ({ HTMLAttributes, node }) => ['span', mergeAttributes(HTMLAttributes, { 'data-inline-math': '' }), `$${node.attrs.latex as string}$`],
+  renderHTML: ({ HTMLAttributes, node }) => [
+    'span',
+    mergeAttributes(HTMLAttributes, { 'data-inline-math': '' }),
+    `$${node.attrs.latex as string}$`,
+  ],
   renderText: ({ node }) => `$${node.attrs.latex as string}$`,
   addNodeView: () => ReactNodeViewRenderer(MathView, { as: 'span' }),
   addCommands() {
@@ -67,7 +71,11 @@ export const DisplayMath = Node.create({
   draggable: true,
   addAttributes: () => latexAttr,
   parseHTML: () => [{ tag: 'div[data-display-math]' }],
-  renderHTML: ({ HTMLAttributes, node }) => ['div', mergeAttributes(HTMLAttributes, { 'data-display-math': '' }), `$$${node.attrs.latex as string}$$`],
+  renderHTML: ({ HTMLAttributes, node }) => [
+    'div',
+    mergeAttributes(HTMLAttributes, { 'data-display-math': '' }),
+    `$$${node.attrs.latex as string}$$`,
+  ],
   renderText: ({ node }) => `$$${node.attrs.latex as string}$$`,
   addNodeView: () => ReactNodeViewRenderer(MathView),
   addCommands() {
@@ -83,7 +91,10 @@ export const DisplayMath = Node.create({
       new InputRule({
         find: /^\$\$\s$/,
         handler: ({ range, chain }) => {
-          chain().deleteRange(range).insertContent({ type: this.name, attrs: { latex: '' } }).run();
+          chain()
+            .deleteRange(range)
+            .insertContent({ type: this.name, attrs: { latex: '' } })
+            .run();
         },
       }),
     ];

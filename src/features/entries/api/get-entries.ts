@@ -21,4 +21,5 @@ export const getEntriesQueryOptions = (notebookId: string, filters: ListEntriesQ
     placeholderData: keepPreviousData,
   });
 
-export const useEntries = (notebookId: string, filters: ListEntriesQuery = {}) => useQuery(getEntriesQueryOptions(notebookId, filters));
+export const useEntries = (notebookId: string, filters: ListEntriesQuery = {}) =>
+  useQuery(getEntriesQueryOptions(notebookId, filters));

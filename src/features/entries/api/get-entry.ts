@@ -5,7 +5,8 @@ import { entriesApi } from './entries-path.ts';
 import { entriesKey } from './get-entries.ts';
 
 /** The entry, its head revision and the caller's own working draft (if any). */
-export const getEntry = (notebookId: string, entryId: string) => api.get(entriesApi.entry(notebookId, entryId), entryDetailSchema);
+export const getEntry = (notebookId: string, entryId: string) =>
+  api.get(entriesApi.entry(notebookId, entryId), entryDetailSchema);
 
 export const getEntryQueryOptions = (notebookId: string, entryId: string) =>
   queryOptions({
@@ -15,4 +16,5 @@ export const getEntryQueryOptions = (notebookId: string, entryId: string) =>
     staleTime: Infinity,
   });
 
-export const useEntry = (notebookId: string, entryId: string) => useQuery(getEntryQueryOptions(notebookId, entryId));
+export const useEntry = (notebookId: string, entryId: string) =>
+  useQuery(getEntryQueryOptions(notebookId, entryId));

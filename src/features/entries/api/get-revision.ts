@@ -16,4 +16,7 @@ export const getRevisionQueryOptions = (notebookId: string, entryId: string, rev
   });
 
 export const useRevision = (notebookId: string, entryId: string, revisionId: string | null) =>
-  useQuery({ ...getRevisionQueryOptions(notebookId, entryId, revisionId ?? ''), enabled: revisionId !== null });
+  useQuery({
+    ...getRevisionQueryOptions(notebookId, entryId, revisionId ?? ''),
+    enabled: revisionId !== null,
+  });

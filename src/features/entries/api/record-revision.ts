@@ -23,7 +23,11 @@ export class RevisionConflict extends Error {
  * throws a RevisionConflict carrying the current head, fetched fresh, so the author can see
  * what changed meanwhile and rebase.
  */
-export async function recordRevision(notebookId: string, entryId: string, input: RecordRevisionInput): Promise<Revision> {
+export async function recordRevision(
+  notebookId: string,
+  entryId: string,
+  input: RecordRevisionInput,
+): Promise<Revision> {
   try {
     return await api.post(entriesApi.revisions(notebookId, entryId), input, revisionSchema);
   } catch (e) {

@@ -5,8 +5,17 @@ import { entriesApi } from './entries-path.ts';
 import { entriesKey } from './get-entries.ts';
 
 /** Record an old revision's content again, as a new revision on top of `baseRevisionId` (the head). */
-export const restoreRevision = (notebookId: string, entryId: string, revisionId: string, baseRevisionId: string) =>
-  api.post(`${entriesApi.revision(notebookId, entryId, revisionId)}/restore`, { baseRevisionId }, revisionSchema);
+export const restoreRevision = (
+  notebookId: string,
+  entryId: string,
+  revisionId: string,
+  baseRevisionId: string,
+) =>
+  api.post(
+    `${entriesApi.revision(notebookId, entryId, revisionId)}/restore`,
+    { baseRevisionId },
+    revisionSchema,
+  );
 
 export function useRestoreRevision(notebookId: string, entryId: string) {
   const qc = useQueryClient();

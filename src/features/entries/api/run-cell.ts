@@ -8,5 +8,16 @@ import { entriesApi } from './entries-path.ts';
  * the server cancels the run. Engine errors come back as an output with status "error".
  * (Not a TanStack mutation: the cell runner tracks many concurrent runs and their cancellation.)
  */
-export const runCell = (notebookId: string, entryId: string, cellId: string, request: ResolvedRequest, signal?: AbortSignal): Promise<RunCellResponse> =>
-  apiRequest(entriesApi.cellRun(notebookId, entryId, cellId), { method: 'POST', body: request, schema: runCellResponseSchema, signal });
+export const runCell = (
+  notebookId: string,
+  entryId: string,
+  cellId: string,
+  request: ResolvedRequest,
+  signal?: AbortSignal,
+): Promise<RunCellResponse> =>
+  apiRequest(entriesApi.cellRun(notebookId, entryId, cellId), {
+    method: 'POST',
+    body: request,
+    schema: runCellResponseSchema,
+    signal,
+  });

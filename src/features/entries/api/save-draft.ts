@@ -8,7 +8,8 @@ export const saveDraft = (notebookId: string, entryId: string, input: SaveDraftI
   api.put(entriesApi.draft(notebookId, entryId), input, draftSchema);
 
 /** Throw the working draft away. */
-export const discardDraft = (notebookId: string, entryId: string) => api.delete(entriesApi.draft(notebookId, entryId));
+export const discardDraft = (notebookId: string, entryId: string) =>
+  api.delete(entriesApi.draft(notebookId, entryId));
 
 export function useSaveDraft(notebookId: string, entryId: string) {
   return useMutation({ mutationFn: (input: SaveDraftInput) => saveDraft(notebookId, entryId, input) });

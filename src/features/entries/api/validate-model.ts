@@ -5,4 +5,9 @@ import { entriesApi } from './entries-path.ts';
 
 /** The engine's parser checks a model: each problem with its field path ("model.variables[1].rhs") and position. */
 export const validateModel = (model: Model, signal?: AbortSignal): Promise<ValidateModelResponse> =>
-  apiRequest(entriesApi.validateModel(), { method: 'POST', body: { model }, schema: validateModelResponseSchema, signal });
+  apiRequest(entriesApi.validateModel(), {
+    method: 'POST',
+    body: { model },
+    schema: validateModelResponseSchema,
+    signal,
+  });

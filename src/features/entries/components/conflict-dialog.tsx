@@ -19,7 +19,15 @@ type ConflictDialogProps = {
  * author changed, each against the common starting point, and offers to rebase the author's
  * changes onto the new revision (nothing is overwritten) or to drop them.
  */
-export function ConflictDialog({ open, base, mine, current, onRebase, onTakeTheirs, onClose }: ConflictDialogProps) {
+export function ConflictDialog({
+  open,
+  base,
+  mine,
+  current,
+  onRebase,
+  onTakeTheirs,
+  onClose,
+}: ConflictDialogProps) {
   return (
     <Dialog
       open={open}
@@ -34,10 +42,15 @@ export function ConflictDialog({ open, base, mine, current, onRebase, onTakeThei
         </section>
         <section>
           <h3 className="mb-1 text-sm font-semibold">Your changes</h3>
-          {base ? <TextDiff from={base} to={mine} emptyText="You changed nothing." /> : <p className="text-sm text-ink-muted">Loading…</p>}
+          {base ? (
+            <TextDiff from={base} to={mine} emptyText="You changed nothing." />
+          ) : (
+            <p className="text-sm text-ink-muted">Loading…</p>
+          )}
         </section>
         <p className="text-sm text-ink-muted">
-          Rebasing applies your changes on top of revision #{current.number}. Where you both changed the same block, both versions are kept, theirs first, for you to tidy before recording.
+          Rebasing applies your changes on top of revision #{current.number}. Where you both changed the same
+          block, both versions are kept, theirs first, for you to tidy before recording.
         </p>
         <div className="flex flex-wrap justify-end gap-2">
           <Button variant="danger" onClick={onTakeTheirs}>

@@ -4,7 +4,13 @@ import type { CellOutputs } from '@shared/cells/output.ts';
 import type { ResolvedRequest } from '@shared/cells/resolve.ts';
 import type { DocumentJson } from '@shared/editor/document.ts';
 import type { Model } from '@shared/engine/contract.ts';
-import { CellNodeView, CellsContext, defaultCellInput, useCellRunner, type CellsRuntime } from '@/features/cells/index.ts';
+import {
+  CellNodeView,
+  CellsContext,
+  defaultCellInput,
+  useCellRunner,
+  type CellsRuntime,
+} from '@/features/cells/index.ts';
 import { EntryEditor } from '@/features/editor/index.ts';
 import { Button } from '@/components/ui/button.tsx';
 import { runCell } from '../api/run-cell.ts';
@@ -36,10 +42,15 @@ function RunBar({ rt }: { rt: CellsRuntime }) {
     running ? `${running} running` : null,
   ].filter(Boolean);
   return (
-    <div role="status" className="mb-3 flex items-center gap-3 rounded-md border border-warning/40 bg-warning-soft px-4 py-2 text-sm text-ink">
+    <div
+      role="status"
+      className="mb-3 flex items-center gap-3 rounded-md border border-warning/40 bg-warning-soft px-4 py-2 text-sm text-ink"
+    >
       <span>
         Cells: {parts.join(' · ')}
-        {stale > 0 && <span className="text-ink-muted"> — their inputs or models changed since they ran.</span>}
+        {stale > 0 && (
+          <span className="text-ink-muted"> — their inputs or models changed since they ran.</span>
+        )}
       </span>
       {stale + never > 0 && (
         <Button size="sm" className="ml-auto" onClick={rt.runAllStale} disabled={running > 0}>
@@ -53,13 +64,34 @@ function RunBar({ rt }: { rt: CellsRuntime }) {
 const noOutputs = () => undefined;
 
 /** The entry body with its cells' runtime: used for the working copy and, read-only, for old revisions. */
-export function EntryDocument({ notebookId, entryId, document, outputs, onDocument, onOutputs, editable, editorKey, label }: EntryDocumentProps) {
+export function EntryDocument({
+  notebookId,
+  entryId,
+  document,
+  outputs,
+  onDocument,
+  onOutputs,
+  editable,
+  editorKey,
+  label,
+}: EntryDocumentProps) {
   const send = useCallback(
-    (cellId: string, request: ResolvedRequest, signal: AbortSignal) => runCell(notebookId, entryId, cellId, request, signal),
+    (cellId: string, request: ResolvedRequest, signal: AbortSignal) =>
+      runCell(notebookId, entryId, cellId, request, signal),
     [notebookId, entryId],
   );
-  const check = useCallback(async (model: Model, signal: AbortSignal) => (await validateModel(model, signal)).errors, []);
-  const rt = useCellRunner({ doc: document, outputs, setOutputs: onOutputs ?? noOutputs, readOnly: !editable, send, validateModel: check });
+  const check = useCallback(
+    async (model: Model, signal: AbortSignal) => (await validateModel(model, signal)).errors,
+    [],
+  );
+  const rt = useCellRunner({
+    doc: document,
+    outputs,
+    setOutputs: onOutputs ?? noOutputs,
+    readOnly: !editable,
+    send,
+    validateModel: check,
+  });
   const cellsRef = useRef(rt.cells);
   useEffect(() => {
     cellsRef.current = rt.cells;
@@ -70,7 +102,15 @@ export function EntryDocument({ notebookId, entryId, document, outputs, onDocume
   return (
     <CellsContext.Provider value={rt}>
       {editable && <RunBar rt={rt} />}
-      <EntryEditor key={editorKey} initialContent={initial} editable={editable} onChange={onDocument} cellView={CellNodeView} createCellInput={createCellInput} label={label} />
+      <EntryEditor
+        key={editorKey}
+        initialContent={initial}
+        editable={editable}
+        onChange={onDocument}
+        cellView={CellNodeView}
+        createCellInput={createCellInput}
+        label={label}
+      />
     </CellsContext.Provider>
   );
 }

@@ -1,6 +1,13 @@
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useNavigate } from 'react-router';
-import { ENTRY_STATUSES, ENTRY_STATUS_LABELS, createEntrySchema, type EntryStatus, type EntrySummary, type ListEntriesQuery } from '@shared/api/entries.ts';
+import {
+  ENTRY_STATUSES,
+  ENTRY_STATUS_LABELS,
+  createEntrySchema,
+  type EntryStatus,
+  type EntrySummary,
+  type ListEntriesQuery,
+} from '@shared/api/entries.ts';
 import { Badge, type BadgeTone } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
 import { Dialog } from '@/components/ui/dialog.tsx';
@@ -14,7 +21,12 @@ import { isApiError } from '@/lib/api-error.ts';
 import { useCreateEntry } from '../api/create-entry.ts';
 import { useEntries } from '../api/get-entries.ts';
 
-const STATUS_TONE: Record<EntryStatus, BadgeTone> = { draft: 'neutral', 'in-review': 'accent', approved: 'success', 'changes-requested': 'unstable' };
+const STATUS_TONE: Record<EntryStatus, BadgeTone> = {
+  draft: 'neutral',
+  'in-review': 'accent',
+  approved: 'success',
+  'changes-requested': 'unstable',
+};
 
 export function EntryStatusBadge({ status }: { status: EntryStatus }) {
   return <Badge tone={STATUS_TONE[status]}>{ENTRY_STATUS_LABELS[status]}</Badge>;
@@ -28,7 +40,9 @@ export function today(): string {
 
 function formatDay(date: string): string {
   const d = new Date(`${date}T12:00:00`);
-  return Number.isNaN(d.getTime()) ? date : d.toLocaleDateString(undefined, { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' });
+  return Number.isNaN(d.getTime())
+    ? date
+    : d.toLocaleDateString(undefined, { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' });
 }
 
 /** Entries grouped by their date, in the order given (newest first). */
@@ -51,7 +65,15 @@ function useDebounced<T>(value: T, ms: number): T {
   return v;
 }
 
-function NewEntryDialog({ notebookId, open, onClose }: { notebookId: string; open: boolean; onClose: () => void }) {
+function NewEntryDialog({
+  notebookId,
+  open,
+  onClose,
+}: {
+  notebookId: string;
+  open: boolean;
+  onClose: () => void;
+}) {
   const [title, setTitle] = useState('');
   const [date, setDate] = useState(today);
   const [tags, setTags] = useState('');
@@ -59,12 +81,24 @@ function NewEntryDialog({ notebookId, open, onClose }: { notebookId: string; ope
   const create = useCreateEntry(notebookId);
   const navigate = useNavigate();
   return (
-    <Dialog open={open} onClose={onClose} title="New entry" description="A dated page of the log: notes, equations and computation cells.">
+    <Dialog
+      open={open}
+      onClose={onClose}
+      title="New entry"
+      description="A dated page of the log: notes, equations and computation cells."
+    >
       <form
         className="space-y-4"
         onSubmit={(e) => {
           e.preventDefault();
-          const input = { title, entryDate: date, tags: tags.split(',').map((t) => t.trim()).filter(Boolean) };
+          const input = {
+            title,
+            entryDate: date,
+            tags: tags
+              .split(',')
+              .map((t) => t.trim())
+              .filter(Boolean),
+          };
           const parsed = createEntrySchema.safeParse(input);
           if (!parsed.success) {
             const errs: Record<string, string> = {};
@@ -81,13 +115,22 @@ function NewEntryDialog({ notebookId, open, onClose }: { notebookId: string; ope
             onError: (err) => {
               const errs: Record<string, string> = {};
               if (isApiError(err)) for (const f of err.fields) errs[f.path.split('.')[0]] ??= f.message;
-              setErrors(Object.keys(errs).length ? errs : { _: err instanceof Error ? err.message : 'The entry was not created' });
+              setErrors(
+                Object.keys(errs).length
+                  ? errs
+                  : { _: err instanceof Error ? err.message : 'The entry was not created' },
+              );
             },
           });
         }}
       >
         <Field label="Title" error={errors.title}>
-          <Input value={title} onChange={(e) => setTitle(e.target.value)} placeholder="Ignition fold of the first-order stirred tank" autoFocus />
+          <Input
+            value={title}
+            onChange={(e) => setTitle(e.target.value)}
+            placeholder="Ignition fold of the first-order stirred tank"
+            autoFocus
+          />
         </Field>
         <div className="grid grid-cols-2 gap-3">
           <Field label="Date" error={errors.entryDate}>
@@ -122,7 +165,13 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
   const dq = useDebounced(q.trim(), 300);
   const dtag = useDebounced(tag.trim(), 300);
   const filters: ListEntriesQuery = useMemo(
-    () => ({ q: dq || undefined, status: status || undefined, tag: dtag || undefined, from: from || undefined, to: to || undefined }),
+    () => ({
+      q: dq || undefined,
+      status: status || undefined,
+      tag: dtag || undefined,
+      from: from || undefined,
+      to: to || undefined,
+    }),
     [dq, status, dtag, from, to],
   );
   const entries = useEntries(notebookId, filters);
@@ -139,11 +188,21 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
       <div className="mb-5 flex flex-wrap items-end gap-3 rounded-md border border-rule bg-surface px-3 py-3">
         <label className="min-w-56 flex-1">
           <span className="mb-1 block text-xs font-medium text-ink-muted">Search</span>
-          <Input type="search" value={q} onChange={(e) => setQ(e.target.value)} placeholder="Words in titles, text and cells" className="h-9" />
+          <Input
+            type="search"
+            value={q}
+            onChange={(e) => setQ(e.target.value)}
+            placeholder="Words in titles, text and cells"
+            className="h-9"
+          />
         </label>
         <label className="w-44">
           <span className="mb-1 block text-xs font-medium text-ink-muted">Status</span>
-          <Select value={status} onChange={(e) => setStatus(e.target.value as EntryStatus | '')} className="h-9">
+          <Select
+            value={status}
+            onChange={(e) => setStatus(e.target.value as EntryStatus | '')}
+            className="h-9"
+          >
             <option value="">Any</option>
             {ENTRY_STATUSES.map((s) => (
               <option key={s} value={s}>
@@ -170,8 +229,17 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
       ) : entries.isError ? (
         <QueryError error={entries.error} what="the log" onRetry={() => void entries.refetch()} />
       ) : entries.data.entries.length === 0 ? (
-        <EmptyState title={filtered ? 'No entries match' : 'No entries yet'} action={!filtered && canWrite ? <Button onClick={() => setCreating(true)}>Write the first entry</Button> : undefined}>
-          {filtered ? 'Try fewer words or clear a filter.' : 'Each entry is a dated page: notes, equations and computation cells.'}
+        <EmptyState
+          title={filtered ? 'No entries match' : 'No entries yet'}
+          action={
+            !filtered && canWrite ? (
+              <Button onClick={() => setCreating(true)}>Write the first entry</Button>
+            ) : undefined
+          }
+        >
+          {filtered
+            ? 'Try fewer words or clear a filter.'
+            : 'Each entry is a dated page: notes, equations and computation cells.'}
         </EmptyState>
       ) : (
         <ol className="space-y-6">
@@ -182,18 +250,31 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
               </h3>
               <ul className="space-y-1">
                 {g.entries.map((e) => (
-                  <li key={e.id} className="flex flex-wrap items-baseline gap-x-3 gap-y-1 rounded-md px-2 py-2 hover:bg-sunken">
+                  <li
+                    key={e.id}
+                    className="flex flex-wrap items-baseline gap-x-3 gap-y-1 rounded-md px-2 py-2 hover:bg-sunken"
+                  >
                     <Link to={paths.entry.getHref(notebookId, e.id)} className="font-serif text-lg font-bold">
                       {e.title}
                     </Link>
                     <EntryStatusBadge status={e.status} />
                     {e.tags.map((t) => (
-                      <button key={t} type="button" onClick={() => setTag(t)} className="rounded-sm bg-sunken px-1.5 text-xs text-ink-muted hover:text-ink" title={`Show entries tagged ${t}`}>
+                      <button
+                        key={t}
+                        type="button"
+                        onClick={() => setTag(t)}
+                        className="rounded-sm bg-sunken px-1.5 text-xs text-ink-muted hover:text-ink"
+                        title={`Show entries tagged ${t}`}
+                      >
                         #{t}
                       </button>
                     ))}
                     <span className="ml-auto text-xs text-ink-muted">
-                      {e.author.name} · {e.revisionCount} revision{e.revisionCount === 1 ? '' : 's'} · updated {new Date(e.updatedAt).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
+                      {e.author.name} · {e.revisionCount} revision{e.revisionCount === 1 ? '' : 's'} · updated{' '}
+                      {new Date(e.updatedAt).toLocaleString(undefined, {
+                        dateStyle: 'medium',
+                        timeStyle: 'short',
+                      })}
                     </span>
                   </li>
                 ))}
@@ -202,7 +283,9 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
           ))}
         </ol>
       )}
-      {canWrite && <NewEntryDialog notebookId={notebookId} open={creating} onClose={() => setCreating(false)} />}
+      {canWrite && (
+        <NewEntryDialog notebookId={notebookId} open={creating} onClose={() => setCreating(false)} />
+      )}
     </section>
   );
 }

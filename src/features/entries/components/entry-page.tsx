@@ -19,7 +19,13 @@ import { ConflictDialog } from './conflict-dialog.tsx';
 import { EntryDocument } from './entry-document.tsx';
 import { RecordRevisionDialog } from './record-revision-dialog.tsx';
 import { RevisionHistory, RevisionReader } from './revision-history.tsx';
-import { fromRevision, keptOutputs, useWorkingCopy, type DraftState, type WorkingCopy } from './use-working-copy.ts';
+import {
+  fromRevision,
+  keptOutputs,
+  useWorkingCopy,
+  type DraftState,
+  type WorkingCopy,
+} from './use-working-copy.ts';
 import type { DiffSide } from './text-diff.tsx';
 
 type EntryPageProps = { notebookId: string; entryId: string; canWrite: boolean };
@@ -29,18 +35,35 @@ export function EntryPage({ notebookId, entryId, canWrite }: EntryPageProps) {
   const q = useEntry(notebookId, entryId);
   if (q.isPending) return <SkeletonBlock lines={8} label="Loading the entry" />;
   if (q.isError) return <QueryError error={q.error} what="the entry" onRetry={() => void q.refetch()} />;
-  return <EntryWorkspace key={entryId} notebookId={notebookId} entryId={entryId} canWrite={canWrite} detail={q.data} />;
+  return (
+    <EntryWorkspace
+      key={entryId}
+      notebookId={notebookId}
+      entryId={entryId}
+      canWrite={canWrite}
+      detail={q.data}
+    />
+  );
 }
 
 function DraftIndicator({ draft, unrecorded }: { draft: DraftState; unrecorded: boolean }) {
   const text =
-    draft.kind === 'pending' ? 'Unsaved changes…'
-    : draft.kind === 'saving' ? 'Saving draft…'
-    : draft.kind === 'error' ? `Draft not saved: ${draft.message}`
-    : draft.kind === 'saved' ? `Draft saved ${new Date(draft.at).toLocaleTimeString(undefined, { timeStyle: 'short' })}`
-    : null;
+    draft.kind === 'pending'
+      ? 'Unsaved changes…'
+      : draft.kind === 'saving'
+        ? 'Saving draft…'
+        : draft.kind === 'error'
+          ? `Draft not saved: ${draft.message}`
+          : draft.kind === 'saved'
+            ? `Draft saved ${new Date(draft.at).toLocaleTimeString(undefined, { timeStyle: 'short' })}`
+            : null;
   return (
-    <span role="status" aria-live="polite" className="flex items-center gap-2 text-xs" data-testid="save-state">
+    <span
+      role="status"
+      aria-live="polite"
+      className="flex items-center gap-2 text-xs"
+      data-testid="save-state"
+    >
       {unrecorded ? <Badge tone="warning">unrecorded changes</Badge> : <Badge tone="success">recorded</Badge>}
       {text && <span className={draft.kind === 'error' ? 'text-unstable' : 'text-ink-muted'}>{text}</span>}
     </span>
@@ -61,7 +84,11 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
   const [recordOpen, setRecordOpen] = useState(false);
   const [recording, setRecording] = useState(false);
   const [recordError, setRecordError] = useState<string>();
-  const [conflict, setConflict] = useState<{ current: Revision; base: DiffSide | null; baseDoc: WorkingCopy | null } | null>(null);
+  const [conflict, setConflict] = useState<{
+    current: Revision;
+    base: DiffSide | null;
+    baseDoc: WorkingCopy | null;
+  } | null>(null);
   const [historyOpen, setHistoryOpen] = useState(false);
   const [reading, setReading] = useState<string | null>(null);
   const [tagsDraft, setTagsDraft] = useState(tagsText(working.tags));
@@ -71,7 +98,9 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
     wc.setHead(rev);
     wc.replace(fromRevision(rev, rev.id), { dirty: false });
     setTagsDraft(tagsText(rev.tags));
-    qc.setQueryData(getEntryQueryOptions(notebookId, entryId).queryKey, (d) => (d ? { ...d, head: rev, draft: null } : d));
+    qc.setQueryData(getEntryQueryOptions(notebookId, entryId).queryKey, (d) =>
+      d ? { ...d, head: rev, draft: null } : d,
+    );
     void qc.invalidateQueries({ queryKey: entriesKey(notebookId) });
     void discardDraft(notebookId, entryId).catch(() => undefined);
   };
@@ -97,7 +126,13 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
         setConflict({ current: e.current, base, baseDoc: base ? fromRevision(base, base.id) : null });
       } else {
         const field = isApiError(e) ? e.fields[0] : undefined;
-        setRecordError(field ? `${field.message} (${field.path})` : e instanceof Error ? e.message : 'The revision was not recorded');
+        setRecordError(
+          field
+            ? `${field.message} (${field.path})`
+            : e instanceof Error
+              ? e.message
+              : 'The revision was not recorded',
+        );
       }
     } finally {
       setRecording(false);
@@ -149,7 +184,8 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
     );
   };
 
-  const staleBase = detail.draft && detail.draft.baseRevisionId !== detail.head.id && working.baseRevisionId !== head.id;
+  const staleBase =
+    detail.draft && detail.draft.baseRevisionId !== detail.head.id && working.baseRevisionId !== head.id;
 
   return (
     <div className={historyOpen ? 'grid gap-6 xl:grid-cols-[minmax(0,1fr)_18rem]' : ''}>
@@ -181,7 +217,17 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
                 )}
                 {!working.title.trim() && <p className="text-sm font-medium text-unstable">Enter a title</p>}
                 <div className="mt-2 flex flex-wrap items-center gap-3 text-sm text-ink-muted">
-                  <Badge tone={detail.entry.status === 'approved' ? 'success' : detail.entry.status === 'changes-requested' ? 'unstable' : detail.entry.status === 'in-review' ? 'accent' : 'neutral'}>
+                  <Badge
+                    tone={
+                      detail.entry.status === 'approved'
+                        ? 'success'
+                        : detail.entry.status === 'changes-requested'
+                          ? 'unstable'
+                          : detail.entry.status === 'in-review'
+                            ? 'accent'
+                            : 'neutral'
+                    }
+                  >
                     {ENTRY_STATUS_LABELS[detail.entry.status]}
                   </Badge>
                   <span>by {detail.entry.author.name}</span>
@@ -189,7 +235,12 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
                     <>
                       <label className="flex w-52 items-center gap-1">
                         <span>Date</span>
-                        <Input type="date" className="h-8 text-sm" value={working.entryDate} onChange={(e) => update({ entryDate: e.target.value })} />
+                        <Input
+                          type="date"
+                          className="h-8 text-sm"
+                          value={working.entryDate}
+                          onChange={(e) => update({ entryDate: e.target.value })}
+                        />
                       </label>
                       <label className="flex w-80 items-center gap-1">
                         <span>Tags</span>
@@ -214,11 +265,20 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
               </div>
               <div className="flex flex-col items-end gap-2">
                 <div className="flex gap-2">
-                  <Button variant="secondary" size="sm" aria-pressed={historyOpen} onClick={() => setHistoryOpen((h) => !h)}>
+                  <Button
+                    variant="secondary"
+                    size="sm"
+                    aria-pressed={historyOpen}
+                    onClick={() => setHistoryOpen((h) => !h)}
+                  >
                     History ({head.number})
                   </Button>
                   {canWrite && (
-                    <Button size="sm" disabled={!wc.unrecorded || !working.title.trim()} onClick={() => setRecordOpen(true)}>
+                    <Button
+                      size="sm"
+                      disabled={!wc.unrecorded || !working.title.trim()}
+                      onClick={() => setRecordOpen(true)}
+                    >
                       Record revision
                     </Button>
                   )}
@@ -228,7 +288,8 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
             </div>
             {staleBase && (
               <p className="mb-3 rounded-md border border-warning/40 bg-warning-soft px-4 py-2 text-sm">
-                Your draft started from an earlier revision; revision #{head.number} has been recorded since. Recording will show you what changed and let you rebase.
+                Your draft started from an earlier revision; revision #{head.number} has been recorded since.
+                Recording will show you what changed and let you rebase.
               </p>
             )}
             <EntryDocument
@@ -247,12 +308,33 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
       {historyOpen && (
         <aside className="xl:sticky xl:top-4 xl:self-start">
           <h2 className="mb-2 text-sm font-semibold tracking-wide text-ink-muted uppercase">History</h2>
-          <RevisionHistory notebookId={notebookId} entryId={entryId} headId={head.id} openId={reading} onOpen={setReading} />
+          <RevisionHistory
+            notebookId={notebookId}
+            entryId={entryId}
+            headId={head.id}
+            openId={reading}
+            onOpen={setReading}
+          />
         </aside>
       )}
-      <RecordRevisionDialog open={recordOpen} onClose={() => setRecordOpen(false)} onRecord={(m) => void record(m)} busy={recording} error={recordError} nextNumber={head.number + 1} />
+      <RecordRevisionDialog
+        open={recordOpen}
+        onClose={() => setRecordOpen(false)}
+        onRecord={(m) => void record(m)}
+        busy={recording}
+        error={recordError}
+        nextNumber={head.number + 1}
+      />
       {conflict && (
-        <ConflictDialog open base={conflict.base} mine={working} current={conflict.current} onRebase={rebase} onTakeTheirs={takeTheirs} onClose={() => setConflict(null)} />
+        <ConflictDialog
+          open
+          base={conflict.base}
+          mine={working}
+          current={conflict.current}
+          onRebase={rebase}
+          onTakeTheirs={takeTheirs}
+          onClose={() => setConflict(null)}
+        />
       )}
     </div>
   );

@@ -12,11 +12,27 @@ export interface DiffSide {
 
 /** The entry as lines of text (title, date and tags first) for a readable diff. */
 export function entryText(e: DiffSide): string {
-  return [`Title: ${e.title}`, `Date: ${e.entryDate}`, `Tags: ${e.tags.join(', ') || '—'}`, '', documentToPlainText(e.document)].join('\n') + '\n';
+  return (
+    [
+      `Title: ${e.title}`,
+      `Date: ${e.entryDate}`,
+      `Tags: ${e.tags.join(', ') || '—'}`,
+      '',
+      documentToPlainText(e.document),
+    ].join('\n') + '\n'
+  );
 }
 
 /** Line-by-line differences between two versions of an entry: removed lines struck red, added lines green. */
-export function TextDiff({ from, to, emptyText = 'No differences.' }: { from: DiffSide; to: DiffSide; emptyText?: string }) {
+export function TextDiff({
+  from,
+  to,
+  emptyText = 'No differences.',
+}: {
+  from: DiffSide;
+  to: DiffSide;
+  emptyText?: string;
+}) {
   const parts = useMemo(() => diffLines(entryText(from), entryText(to)), [from, to]);
   const changed = parts.some((p) => p.added || p.removed);
   if (!changed) return <p className="text-sm text-ink-muted">{emptyText}</p>;
@@ -34,7 +50,13 @@ export function TextDiff({ from, to, emptyText = 'No differences.' }: { from: Di
           );
         }
         return (
-          <span key={i} className={cn('block', p.added ? 'bg-success-soft text-success' : 'bg-unstable-soft text-unstable line-through')}>
+          <span
+            key={i}
+            className={cn(
+              'block',
+              p.added ? 'bg-success-soft text-success' : 'bg-unstable-soft text-unstable line-through',
+            )}
+          >
             {p.value
               .replace(/\n$/, '')
               .split('\n')

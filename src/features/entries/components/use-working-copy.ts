@@ -15,13 +15,25 @@ export interface WorkingCopy {
   outputs: CellOutputs;
 }
 
-export type DraftState = { kind: 'clean' } | { kind: 'pending' } | { kind: 'saving' } | { kind: 'saved'; at: string } | { kind: 'error'; message: string };
+export type DraftState =
+  | { kind: 'clean' }
+  | { kind: 'pending' }
+  | { kind: 'saving' }
+  | { kind: 'saved'; at: string }
+  | { kind: 'error'; message: string };
 
 /** Autosave waits this long after the last change. */
 export const AUTOSAVE_DELAY_MS = 900;
 
 export function fromRevision(r: Revision | Draft, baseRevisionId: string): WorkingCopy {
-  return { baseRevisionId, title: r.title, entryDate: r.entryDate, tags: r.tags, document: r.document, outputs: r.outputs };
+  return {
+    baseRevisionId,
+    title: r.title,
+    entryDate: r.entryDate,
+    tags: r.tags,
+    document: r.document,
+    outputs: r.outputs,
+  };
 }
 
 /** Outputs of cells that are still in the document (removed cells leave none behind). */
@@ -30,8 +42,16 @@ export function keptOutputs(doc: DocumentJson, outputs: CellOutputs): CellOutput
   return Object.fromEntries(Object.entries(outputs).filter(([id]) => ids.has(id)));
 }
 
-export function contentKey(w: Pick<WorkingCopy, 'title' | 'entryDate' | 'tags' | 'document' | 'outputs'>): string {
-  return canonicalJson({ title: w.title, entryDate: w.entryDate, tags: w.tags, document: w.document, outputs: keptOutputs(w.document, w.outputs) });
+export function contentKey(
+  w: Pick<WorkingCopy, 'title' | 'entryDate' | 'tags' | 'document' | 'outputs'>,
+): string {
+  return canonicalJson({
+    title: w.title,
+    entryDate: w.entryDate,
+    tags: w.tags,
+    document: w.document,
+    outputs: keptOutputs(w.document, w.outputs),
+  });
 }
 
 /**
@@ -41,10 +61,14 @@ export function contentKey(w: Pick<WorkingCopy, 'title' | 'entryDate' | 'tags' |
  */
 export function useWorkingCopy(notebookId: string, entryId: string, detail: EntryDetail, canWrite: boolean) {
   const [working, setWorking] = useState<WorkingCopy>(() =>
-    detail.draft ? fromRevision(detail.draft, detail.draft.baseRevisionId) : fromRevision(detail.head, detail.head.id),
+    detail.draft
+      ? fromRevision(detail.draft, detail.draft.baseRevisionId)
+      : fromRevision(detail.head, detail.head.id),
   );
   const [head, setHead] = useState<Revision>(detail.head);
-  const [draft, setDraft] = useState<DraftState>(detail.draft ? { kind: 'saved', at: detail.draft.updatedAt } : { kind: 'clean' });
+  const [draft, setDraft] = useState<DraftState>(
+    detail.draft ? { kind: 'saved', at: detail.draft.updatedAt } : { kind: 'clean' },
+  );
   const [editorKey, setEditorKey] = useState(() => `${entryId}:${working.baseRevisionId}:0`);
   const version = useRef(0);
   const saved = useRef(0);
@@ -60,13 +84,16 @@ export function useWorkingCopy(notebookId: string, entryId: string, detail: Entr
   }, []);
 
   /** Replace the working copy wholesale (rebase, discard, after recording) and reload the editor. */
-  const replace = useCallback((next: WorkingCopy, opts: { dirty: boolean }) => {
-    version.current += 1;
-    if (!opts.dirty) saved.current = version.current;
-    setWorking(next);
-    setEditorKey(`${entryId}:${next.baseRevisionId}:${version.current}`);
-    setDraft(opts.dirty ? { kind: 'pending' } : { kind: 'clean' });
-  }, [entryId]);
+  const replace = useCallback(
+    (next: WorkingCopy, opts: { dirty: boolean }) => {
+      version.current += 1;
+      if (!opts.dirty) saved.current = version.current;
+      setWorking(next);
+      setEditorKey(`${entryId}:${next.baseRevisionId}:${version.current}`);
+      setDraft(opts.dirty ? { kind: 'pending' } : { kind: 'clean' });
+    },
+    [entryId],
+  );
 
   const flush = useCallback(async () => {
     if (!canWrite || saved.current === version.current) return;
@@ -79,7 +106,14 @@ export function useWorkingCopy(notebookId: string, entryId: string, detail: Entr
       setDraft(version.current === v ? { kind: 'saved', at: d.updatedAt } : { kind: 'pending' });
     } catch (e) {
       const field = isApiError(e) ? e.fields[0] : undefined;
-      setDraft({ kind: 'error', message: field ? `${field.message} (${field.path})` : e instanceof Error ? e.message : 'The draft could not be saved' });
+      setDraft({
+        kind: 'error',
+        message: field
+          ? `${field.message} (${field.path})`
+          : e instanceof Error
+            ? e.message
+            : 'The draft could not be saved',
+      });
     }
   }, [canWrite, notebookId, entryId]);
 
@@ -97,7 +131,10 @@ export function useWorkingCopy(notebookId: string, entryId: string, detail: Entr
     return () => window.removeEventListener('beforeunload', warn);
   }, []);
 
-  const unrecorded = useMemo(() => working.baseRevisionId !== head.id || contentKey(working) !== contentKey(head), [working, head]);
+  const unrecorded = useMemo(
+    () => working.baseRevisionId !== head.id || contentKey(working) !== contentKey(head),
+    [working, head],
+  );
 
   return { working, update, replace, head, setHead, draft, flush, editorKey, unrecorded };
 }
