@@ -15,6 +15,7 @@ import { reviewQueueRoutes, reviewsRoutes } from './reviews.routes.ts';
 import { attachmentsRoutes } from './attachments.routes.ts';
 import { figuresRoutes } from './figures.routes.ts';
 import { exportsRoutes } from './exports.routes.ts';
+import { searchRoutes } from './search.routes.ts';
 import { measurementsRoutes } from './measurements.routes.ts';
 
 export interface RouteRegistration {
@@ -44,5 +45,6 @@ export const API_ROUTES: RouteRegistration[] = [
   { path: '/notebooks/:notebookId/entries/:entryId/figures', create: figuresRoutes },
   { path: '/notebooks/:notebookId/entries/:entryId/measurements', create: measurementsRoutes },
   { path: '/notebooks/:notebookId/entries/:entryId/export', create: exportsRoutes },
+  { path: '/search', create: searchRoutes },
   { path: '/dev/outbox', create: outboxRoutes, devOnly: true },
 ];
