@@ -12,6 +12,7 @@ import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
 import { withTolerances, type Tolerances } from './defaults.ts';
 import { EngineRequestError } from './errors.ts';
 import { compileModel } from './model/compile.ts';
+import { expandIndexed, originalPath } from './model/indexed.ts';
 import { parseModel } from './model/parse.ts';
 import type { TaskContext } from './tasks/context.ts';
 import { runContinuation } from './tasks/continuation.ts';
@@ -53,7 +54,9 @@ function zodFieldErrors(error: z.ZodError, prefix: string[] = []): EngineFieldEr
 export function validateModel(model: unknown): EngineFieldError[] {
   const shaped = modelSchema.safeParse(model);
   if (!shaped.success) return zodFieldErrors(shaped.error, ['model']);
-  return parseModel(shaped.data).errors;
+  const { expanded, errors } = expandIndexed(shaped.data);
+  if (!expanded) return errors;
+  return parseModel(expanded.model).errors.map((e) => originalPath(e, expanded.origin));
 }
 
 /**

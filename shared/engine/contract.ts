@@ -32,8 +32,24 @@ const expressionSchema = z
 
 const finite = z.number({ message: 'Enter a finite number' });
 
-/** One state variable x_i with its right-hand side x_i' = f_i(x, p). */
-export const variableSchema = z.object({ name: identifierSchema, rhs: expressionSchema });
+/**
+ * One state variable x_i with its right-hand side x_i' = f_i(x, p). With `size`, an indexed
+ * variable u[1] … u[size] of a discretised spatial model: `rhs` is written once for u[i] and may
+ * use `i`, u[i − k] … u[i + k] and other variables at constant indices (u[1]); u[0] and
+ * u[size + 1] are the boundary values `boundary.left` / `boundary.right` (expressions in the
+ * parameters, default 0). Results name the entries "u[1]", "u[2]", ….
+ */
+export const variableSchema = z.object({
+  name: identifierSchema,
+  rhs: expressionSchema,
+  size: z
+    .number()
+    .int()
+    .min(1)
+    .max(ENGINE_LIMITS.indexedSizeMax, { message: `An indexed variable has at most ${ENGINE_LIMITS.indexedSizeMax} entries` })
+    .optional(),
+  boundary: z.object({ left: expressionSchema.default('0'), right: expressionSchema.default('0') }).optional(),
+});
 /** One named parameter with its current value. */
 export const parameterSchema = z.object({ name: identifierSchema, value: finite });
 /** A named intermediate expression; may use variables, parameters and earlier definitions. */

@@ -7,6 +7,10 @@ export const ENGINE_LIMITS = {
   nameMax: 32,
   /** State variables of one model (a 50-point discretised boundary-value problem must fit). */
   variablesMax: 120,
+  /** Entries of one indexed variable (a discretised spatial model). */
+  indexedSizeMax: 5000,
+  /** State dimension once indexed variables are written out. */
+  stateMax: 10000,
   /** Named parameters of one model. */
   parametersMax: 60,
   /** Named definitions (intermediate expressions) of one model. */

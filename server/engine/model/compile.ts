@@ -3,6 +3,7 @@ import { EngineRequestError } from '../errors.ts';
 import { buildFunction, emitExpression } from './codegen.ts';
 import { expandDefinitions, isZero, partialDerivative } from './derive.ts';
 import { num, symbolsOf, type Node } from './nodes.ts';
+import { expandIndexed, originalPath } from './indexed.ts';
 import { parameterSymbol, parseModel, variableSymbol, type ParsedModel } from './parse.ts';
 
 export type VectorFunction = (x: Float64Array, p: Float64Array, out: Float64Array) => void;
@@ -187,9 +188,16 @@ export function compileModel(model: Model): CompiledModel {
     cache.set(key, hit);
     return withValues(hit, model);
   }
-  const { model: parsed, errors } = parseModel(model);
-  if (!parsed) throw new EngineRequestError(errors[0] as ConstructorParameters<typeof EngineRequestError>[0], errors);
-  const compiled = compileParsedModel(parsed);
+  const { expanded, errors: indexErrors } = expandIndexed(model);
+  if (!expanded) throw new EngineRequestError(indexErrors[0] as ConstructorParameters<typeof EngineRequestError>[0], indexErrors);
+  const { model: parsed, errors } = parseModel(expanded.model);
+  if (!parsed) {
+    const mapped = errors.map((e) => originalPath(e, expanded.origin));
+    throw new EngineRequestError(mapped[0] as ConstructorParameters<typeof EngineRequestError>[0], mapped);
+  }
+  const inner = compileParsedModel(parsed);
+  // Indexed entries are presented as "u[3]".
+  const compiled = expanded.model === model ? inner : (Object.create(inner, { variables: { value: expanded.displayNames } }) as CompiledModel);
   cache.set(key, compiled);
   if (cache.size > CACHE_SIZE) cache.delete(cache.keys().next().value!);
   return withValues(compiled, model);
