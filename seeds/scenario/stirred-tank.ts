@@ -298,7 +298,7 @@ function foldMapEntry(): ScenarioEntry {
     return [
       heading(2, 'Fold map'),
       paragraph(
-        `Starting from the ignition fold at B = 9, the curve of folds in the (Da, B) plane has ${countWord(cusps.length, 'cusp', 'cusps')}` +
+        `Starting from the ignition fold of the branch with B = 9, the curve of folds in the (Da, B) plane has ${countWord(cusps.length, 'cusp', 'cusps')}` +
           (cusps.length > 0 ? `: ${cusps.join('; ')}.` : '.') +
           ' At B = 9 the curve crosses the line of the branch entry twice, at its ignition and extinction folds; between them the tank has three steady states.',
       ),
