@@ -31,7 +31,9 @@ export function formatValue(x: number, scale = 0): string {
   if (!Number.isFinite(x)) return String(x);
   if (x === 0 || Math.abs(x) < ZERO_SHARE * scale) return '0.0000';
   const ax = Math.abs(x);
-  const s = ax >= 1e-3 && ax < 1e5 ? ax.toFixed(4) : ax.toExponential(3);
+  // Fixed decimals in the everyday range, and for small values of a quantity whose scale is everyday.
+  const fixed = ax < 1e5 && (ax >= 1e-3 || scale >= 1e-2);
+  const s = fixed ? ax.toFixed(4) : ax.toExponential(3).replace('e-', `e${MINUS}`).replace('e+', 'e');
   return (x < 0 ? MINUS : '') + s;
 }
 

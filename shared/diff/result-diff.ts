@@ -40,6 +40,8 @@ export interface ResultChange {
 
 /** Matched events farther apart than this (in scaled distance) count as different events. */
 export const MATCH_DISTANCE = 0.25;
+/** A change of the covered parameter range is reported when an end moves by more than this share of the extent. */
+export const RANGE_SHARE = 0.02;
 /** A parameter difference below this share of the extent is "unchanged" (printing precision). */
 export const UNCHANGED_SHARE = 1e-9;
 
@@ -210,7 +212,8 @@ export function diffBranches(older: ContinuationResult, newer: ContinuationResul
   const range = (pts: readonly BranchPoint[]) => (pts.length ? [Math.min(...pts.map((x) => x.parameter)), Math.max(...pts.map((x) => x.parameter))] : null);
   const ra = range(a.points);
   const rb = range(b.points);
-  if (ra && rb && (formatValue(ra[0], pScale) !== formatValue(rb[0], pScale) || formatValue(ra[1], pScale) !== formatValue(rb[1], pScale))) {
+  // Ends that moved by less than RANGE_SHARE of the extent are the folds moving, not a new range.
+  if (ra && rb && (Math.abs(ra[0] - rb[0]) > RANGE_SHARE * pScale || Math.abs(ra[1] - rb[1]) > RANGE_SHARE * pScale)) {
     const n = displayName(parameter);
     out.push({
       kind: 'changed',

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import { launchBrowser, saveScreenshot, SCREENSHOTS_DIR } from '../support/browser.ts';
@@ -83,6 +83,10 @@ beforeAll(async () => {
   await recordRevision('mu + 0.01 - x^2', 'The fold sits at mu = -0.01 once the leak is included.', 'Leak term added');
 });
 
+afterEach(async (ctx) => {
+  if (ctx.task.result?.state === 'fail') await saveScreenshot(page, `review-flow-failure-${ctx.task.name.slice(0, 30).replace(/\W+/g, '-')}`);
+});
+
 afterAll(async () => {
   await browser?.close();
 });
@@ -122,7 +126,7 @@ describe('review of an entry', () => {
     await comparison.waitFor();
     // Word-level text change, collapsed unchanged stretch, input change, result change in words.
     await comparison.locator('ins').filter({ hasText: '-0.01' }).first().waitFor();
-    await comparison.getByRole('button', { name: /Show \d+ unchanged paragraphs/ }).waitFor();
+    await comparison.getByRole('button', { name: /Show \d+ unchanged blocks/ }).waitFor();
     await comparison.getByText('Equation for x′ changed: x′ = mu - x^2 → x′ = mu + 0.01 - x^2').waitFor();
     await comparison.getByText('Fold moved from μ = 0.0000 to μ = −0.0100 (−0.0100)').waitFor();
     const plot = comparison.getByTestId('overlay-plot');
@@ -164,7 +168,7 @@ describe('review of an entry', () => {
     await signIn(page, baseUrl, 'pi');
     await page.goto(reviewUrl());
     await page.getByRole('heading', { name: title }).waitFor();
-    await page.getByTestId('revision-comparison').getByText('moves by −0.01', { exact: false }).first().waitFor();
+    await page.getByTestId('revision-comparison').locator('ins').filter({ hasText: '−0.01' }).first().waitFor();
     await page.getByRole('button', { name: 'Approve…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Approve and sign' });
     await dialog.getByText(DEMO_PEOPLE.pi.name).waitFor();

@@ -72,7 +72,7 @@ export function CellChangeCard({
           <Badge tone={badge.tone}>{badge.words}</Badge>
           {onComment && cell.status !== 'removed' && (
             <button type="button" className="rounded-sm px-1.5 text-xs text-accent hover:bg-accent-soft" onClick={() => onComment(cell.cellId)} aria-label={`Comment on the cell ${cell.title}`}>
-              {commentCount > 0 ? `💬 ${commentCount}` : 'Comment'}
+              {commentCount > 0 ? `${commentCount} ${commentCount === 1 ? 'comment' : 'comments'}` : 'Comment'}
             </button>
           )}
         </div>

@@ -11,11 +11,11 @@ function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onCom
     part.kind === 'same' ? (
       <span key={i}>{part.text}</span>
     ) : part.kind === 'added' ? (
-      <ins key={i} className="rounded-sm bg-success-soft text-success no-underline decoration-success/60 [text-decoration-line:underline]">
+      <ins key={i} className="mx-px rounded-sm bg-success-soft px-px text-success underline decoration-success/60">
         {part.text}
       </ins>
     ) : (
-      <del key={i} className="rounded-sm bg-unstable-soft text-unstable">
+      <del key={i} className="mx-px rounded-sm bg-unstable-soft px-px text-unstable">
         {part.text}
       </del>
     ),
@@ -46,7 +46,7 @@ function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onCom
             className={cn('rounded-sm px-1.5 text-xs text-accent hover:bg-accent-soft', commentCount === 0 && 'opacity-60 group-hover:opacity-100 focus:opacity-100')}
             aria-label={`Comment on this ${block.type === 'cell' ? 'cell' : 'block'}: ${text.slice(0, 40)}`}
           >
-            {commentCount > 0 ? `💬 ${commentCount}` : 'Comment'}
+            {commentCount > 0 ? `${commentCount} ${commentCount === 1 ? 'comment' : 'comments'}` : 'Comment'}
           </button>
         )}
       </div>
