@@ -24,7 +24,7 @@ export async function recordAuditExport(manager: EntityManager, actor: UserEntit
   await recordEvent(manager, { actorId: actor.id, action: 'audit.exported', entityType: 'audit', notebookId: filter.notebookId ?? null, summary: { filter } });
 }
 
-/** Writes every matching event as CSV, oldest first, in batches (the whole trail never sits in memory). */
+/** Writes every matching event as CSV, oldest first, in batches (the whole trail never sits in memory); stops if the reader goes away. */
 export async function writeAuditCsv(manager: EntityManager, filter: AuditFilter, out: Writable, batchSize = 500): Promise<number> {
   out.write(`${AUDIT_CSV_COLUMNS.join(',')}\r\n`);
   let after = '0';
@@ -33,7 +33,18 @@ export async function writeAuditCsv(manager: EntityManager, filter: AuditFilter,
     const rows = await fetchWithActor(auditQueryBuilder(manager, filter).andWhere('e.seq > :after', { after }).orderBy('e.seq', 'ASC').limit(batchSize));
     if (rows.length === 0) return written;
     for (const row of rows) {
-      if (!out.write(csvRow(row))) await new Promise((resolve) => out.once('drain', resolve));
+      if (out.destroyed) return written; // the caller went away
+      if (!out.write(csvRow(row))) {
+        await new Promise<void>((resolve) => {
+          const done = () => {
+            out.off('drain', done);
+            out.off('close', done);
+            resolve();
+          };
+          out.once('drain', done);
+          out.once('close', done);
+        });
+      }
     }
     written += rows.length;
     after = rows[rows.length - 1].seq;
