@@ -1,0 +1,2 @@
+export { ExportMenu } from './components/export-menu.tsx';
+export { exportsApi } from './api/exports-path.ts';

@@ -1,0 +1,2 @@
+export { SearchPage } from './components/search-page.tsx';
+export { useSearchEntries } from './api/search-entries.ts';
