@@ -31,11 +31,26 @@ export function actionWords(action: string): string {
   return verb ? `${group}: ${verb.replace(/_/g, ' ')}` : action.replace(/_/g, ' ');
 }
 
-/** A one-line reading of the recorded before/after summary. */
+const show = (v: unknown): string => (typeof v === 'string' ? v : v === null || v === undefined ? '—' : JSON.stringify(v));
+const isRecord = (v: unknown): v is Record<string, unknown> => !!v && typeof v === 'object' && !Array.isArray(v);
+
+/**
+ * A one-line reading of the recorded summary: a change as "status: in-review → approved", then
+ * the other recorded fields as "name: value".
+ */
 export function summaryWords(summary: Record<string, unknown>): string {
-  return Object.entries(summary)
-    .map(([k, v]) => `${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}`)
-    .join(' · ');
+  const parts: string[] = [];
+  const { before, after, ...rest } = summary;
+  if (isRecord(before) || isRecord(after)) {
+    const b = isRecord(before) ? before : {};
+    const a = isRecord(after) ? after : {};
+    for (const k of [...new Set([...Object.keys(b), ...Object.keys(a)])]) parts.push(`${k}: ${show(b[k])} → ${show(a[k])}`);
+  } else {
+    if (before !== undefined) rest.before = before;
+    if (after !== undefined) rest.after = after;
+  }
+  for (const [k, v] of Object.entries(rest)) parts.push(`${k}: ${show(v)}`);
+  return parts.join(' · ');
 }
 
 export interface AuditScope {

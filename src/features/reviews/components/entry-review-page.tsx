@@ -140,6 +140,7 @@ export function EntryReviewPage({ notebookId, entryId, isPi, canWrite, me }: { n
                 older={a}
                 newer={b}
                 commentCounts={counts}
+                showSignatures={!(detail && detail.signatures.length > 0 && b.id === detail.review.revisionId)}
                 onCommentBlock={(blockIndex, label) => setTarget({ anchor: { revisionId: b.id, blockIndex }, label })}
                 onCommentCell={(cellId, label) => setTarget({ anchor: { revisionId: b.id, cellId }, label })}
               />

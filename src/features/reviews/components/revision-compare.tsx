@@ -96,9 +96,12 @@ export function RevisionComparison({
   onCommentBlock,
   onCommentCell,
   commentCounts,
+  showSignatures = true,
 }: {
   older: Revision;
   newer: Revision;
+  /** Show the newer revision's signatures below the comparison (off where the page shows them already). */
+  showSignatures?: boolean;
   onCommentBlock?: (blockIndex: number, label: string) => void;
   onCommentCell?: (cellId: string, label: string) => void;
   commentCounts?: Record<string, number>;
@@ -152,7 +155,7 @@ export function RevisionComparison({
         </div>
         {sameCells > 0 && <p className="mt-2 text-xs text-ink-muted">{sameCells === 1 ? '1 cell is' : `${sameCells} cells are`} the same in both revisions.</p>}
       </section>
-      {newer.signatures.length > 0 && (
+      {showSignatures && newer.signatures.length > 0 && (
         <section aria-label="Signatures on the newer revision" className="space-y-2">
           {newer.signatures.map((s) => (
             <SignatureBlock key={s.id} signature={s} />
