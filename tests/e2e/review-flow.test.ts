@@ -3,7 +3,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vi
 import type { Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import { launchBrowser, saveScreenshot, SCREENSHOTS_DIR } from '../support/browser.ts';
-import { signIn, signOut } from './helpers.ts';
+import { seriousAxeViolations, signIn, signOut } from './helpers.ts';
 
 /**
  * The review flow end to end: the researcher records two revisions in which the fold of
@@ -133,6 +133,7 @@ describe('review of an entry', () => {
     await plot.scrollIntoViewIfNeeded();
     await plot.locator('svg, canvas').first().waitFor({ timeout: 20_000 });
     await saveScreenshot(page, 'review-page');
+    expect(await seriousAxeViolations(page)).toEqual([]);
     await plot.screenshot({ path: `${SCREENSHOTS_DIR}review-overlay.png` });
   });
 
@@ -188,6 +189,19 @@ describe('review of an entry', () => {
     expect(text).toContain('reproduced ✓');
     await page.getByText('Approved · submitted by Kofi Mensah').waitFor();
     await saveScreenshot(page, 'review-signature');
+  });
+
+  it('the compare page compares any two revisions picked from the list', async () => {
+    await page.goto(`${baseUrl}/notebooks/${notebookId}/entries/${entryId}/compare`);
+    const comparison = page.getByTestId('revision-comparison');
+    await comparison.waitFor();
+    // Default: the newest revision against the one before it (only the text changed).
+    await comparison.getByText('0 cells changed', { exact: false }).waitFor();
+    await page.getByLabel('Older revision').selectOption({ label: (await page.getByLabel('Older revision').locator('option', { hasText: '#2 ·' }).textContent()) ?? '' });
+    await comparison.getByText('Fold moved from μ = 0.0000 to μ = −0.0100 (−0.0100)').waitFor();
+    expect(page.url()).toContain('from=');
+    // The newer revision is signed: its signature is shown with it.
+    await comparison.getByTestId('signature-block').getByText('reproduced ✓').waitFor();
   });
 
   it('the audit trail of the entry lists the review and the signature, with a CSV export', async () => {

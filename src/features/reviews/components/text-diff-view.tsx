@@ -43,7 +43,7 @@ function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onCom
           <button
             type="button"
             onClick={() => onComment(block)}
-            className={cn('rounded-sm px-1.5 text-xs text-accent hover:bg-accent-soft', commentCount === 0 && 'opacity-60 group-hover:opacity-100 focus:opacity-100')}
+            className={cn('rounded-sm px-1.5 text-xs hover:bg-accent-soft', commentCount === 0 ? 'text-ink-muted group-hover:text-accent' : 'font-semibold text-accent')}
             aria-label={`Comment on this ${block.type === 'cell' ? 'cell' : 'block'}: ${text.slice(0, 40)}`}
           >
             {commentCount > 0 ? `${commentCount} ${commentCount === 1 ? 'comment' : 'comments'}` : 'Comment'}
