@@ -15,6 +15,8 @@ import { locateAlongCurve } from './cusp.ts';
  * Bifurcation Theory, 3rd ed., §10.2.2). Returned as sign and log|det| to stay in range.
  */
 export function branchTest(system: CurveSystem, y: Float64Array, tangent: Float64Array): { sign: number; log: number } {
+  const structured = system.factorBordered?.(y, tangent);
+  if (structured) return structured.determinant();
   const s = system.dimension;
   const m = new Float64Array(s * s);
   system.jacobian(y, m);

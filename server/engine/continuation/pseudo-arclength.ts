@@ -1,8 +1,8 @@
 import type { StopReason } from '@shared/engine/contract.ts';
 import type { Tolerances } from '../defaults.ts';
-import { luFactor, luSolve, type LuFactors } from '../linalg/lu.ts';
+import { luFactor, luLogDeterminant, luSolve, type LuFactors } from '../linalg/lu.ts';
 import { allFinite, dot, norm2, normInf } from '../linalg/vector.ts';
-import type { CoordinateBound, CurveSystem } from './curve-system.ts';
+import type { BorderedFactors, CoordinateBound, CurveSystem } from './curve-system.ts';
 
 export interface CurvePoint {
   y: Float64Array;
@@ -45,12 +45,15 @@ class Workspace {
     this.g = new Float64Array(size - 1);
     this.lu = { n: size, lu: new Float64Array(size * size), pivot: new Int32Array(size), singular: false, pivotRatio: 1 };
   }
-  /** Fill the bordered matrix [DG(y); rowᵀ] and factor it. */
-  factorBordered(system: CurveSystem, y: Float64Array, row: Float64Array): LuFactors {
+  /** Fill the bordered matrix [DG(y); rowᵀ] and factor it (structured when the system offers it). */
+  factorBordered(system: CurveSystem, y: Float64Array, row: Float64Array): BorderedFactors {
+    const structured = system.factorBordered?.(y, row);
+    if (structured) return structured;
     const s = this.size;
     system.jacobian(y, this.m);
     this.m.set(row, (s - 1) * s);
-    return luFactor(this.m, s, false, this.lu);
+    const f = luFactor(this.m, s, false, this.lu);
+    return { singular: f.singular, solve: (b, out) => luSolve(f, b, out), determinant: () => luLogDeterminant(f) };
   }
 }
 
@@ -64,7 +67,7 @@ export function curveTangent(system: CurveSystem, y: Float64Array, guess: Float6
   if (f.singular) return null;
   ws.rhs.fill(0);
   ws.rhs[ws.size - 1] = 1;
-  const t = luSolve(f, ws.rhs, new Float64Array(ws.size));
+  const t = f.solve(ws.rhs, new Float64Array(ws.size));
   const len = norm2(t);
   if (!(len > 0) || !Number.isFinite(len)) return null;
   for (let i = 0; i < t.length; i++) t[i] /= len;
@@ -94,7 +97,7 @@ export function correct(
     if (f.singular) return { converged: normInf(ws.g, s - 1) <= tolerances.newtonResidual * (1 + normInf(z, s)) * 1e-3 && Math.abs(dot(row, z, s) - target) <= tolerances.correctorStep * (1 + normInf(z, s)), iterations: it };
     ws.rhs.set(ws.g);
     ws.rhs[s - 1] = dot(row, z, s) - target;
-    luSolve(f, ws.rhs, ws.d);
+    f.solve(ws.rhs, ws.d);
     for (let i = 0; i < s; i++) z[i] -= ws.d[i];
     if (!allFinite(z, s)) return { converged: false, iterations: it };
     if (normInf(ws.d, s) <= tolerances.correctorStep * (1 + normInf(z, s))) return { converged: true, iterations: it };

@@ -30,6 +30,8 @@ export interface CompiledModel {
   jacobianParameterDerivative(k: number): MatrixFunction;
   /** out[i·n + k] = Σ_j ∂²f_i/∂x_j∂x_k · v_j, i.e. the matrix D²f(v, ·). */
   readonly hessianTimes: HessianTimes;
+  /** Structural band of the Jacobian: ∂f_i/∂x_j is identically zero unless −kl ≤ j − i ≤ ku. */
+  readonly jacobianBand: { kl: number; ku: number };
 }
 
 const vectorBody = (n: number, entries: Node[], prefix = ''): string => {
@@ -70,8 +72,17 @@ export function compileParsedModel(parsed: ParsedModel): CompiledModel {
   const jacobianByParameter = new Map<number, MatrixFunction>();
   let hessian: HessianTimes | null = null;
 
+  let kl = 0;
+  let ku = 0;
+  for (const { index } of jacobianEntries) {
+    const i = Math.floor(index / n);
+    const j = index % n;
+    kl = Math.max(kl, i - j);
+    ku = Math.max(ku, j - i);
+  }
   return {
     n,
+    jacobianBand: { kl, ku },
     variables: parsed.variables,
     parameters: parsed.parameters,
     parameterValues: () => Float64Array.from(parsed.parameterValues),

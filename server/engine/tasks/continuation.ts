@@ -16,7 +16,7 @@ import { hopfCoefficients } from '../bifurcation/lyapunov.ts';
 import { foldSensitivities } from '../bifurcation/sensitivity.ts';
 import { tippingMargins } from '../bifurcation/tipping-margin.ts';
 import { dot } from '../linalg/vector.ts';
-import { locateFold } from '../bifurcation/fold.ts';
+import { LARGE_FOLD_MIN, locateFold, locateFoldAlongCurve } from '../bifurcation/fold.ts';
 import { foldNormalForm } from '../bifurcation/normal-form.ts';
 import { stabilityOf } from '../bifurcation/stability.ts';
 import { EquilibriumSystem } from '../continuation/equilibrium-system.ts';
@@ -96,7 +96,7 @@ export function runContinuation(model: CompiledModel, task: ContinuationTask, ct
   const jac = new Float64Array(n * n);
   const describe = (pt: CurvePoint): TracedPoint['data'] => {
     model.jacobian(pt.y, system.parametersAt(pt.y), jac);
-    const point: BranchPoint = { state: named(model.variables, pt.y), parameter: pt.y[n], ...stabilityOf(jac, n, ctx.tolerances), residual: pt.residual };
+    const point: BranchPoint = { state: named(model.variables, pt.y), parameter: pt.y[n], ...stabilityOf(jac, n, ctx.tolerances, model.jacobianBand), residual: pt.residual };
     return { point };
   };
   const options = { step: task.step, bounds: [{ index: n, min: task.bounds.min, max: task.bounds.max }], deadline: ctx.deadline, tolerances: ctx.tolerances, describe };
@@ -140,7 +140,7 @@ function locateEvents(model: CompiledModel, k: number, p: Float64Array, system: 
     const ta = a.tangent[n];
     const tb = b.tangent[n];
     if (ta * tb < 0) {
-      const fold = foldEvent(model, k, p, a, b, i, ctx);
+      const fold = foldEvent(model, system, k, p, a, b, i, ctx);
       if (fold) events.push(fold);
     } else if (signs[i] * signs[i + 1] < 0) {
       const bp = locateBranchPoint(system, a, b, n, ctx.tolerances);
@@ -245,7 +245,7 @@ function followOtherBranch(
 }
 
 /** Locate the fold between two branch points whose tangents' parameter components differ in sign. */
-function foldEvent(model: CompiledModel, k: number, parameters: Float64Array, a: CurvePoint, b: CurvePoint, after: number, ctx: TaskContext): FoldEvent | null {
+function foldEvent(model: CompiledModel, system: EquilibriumSystem, k: number, parameters: Float64Array, a: CurvePoint, b: CurvePoint, after: number, ctx: TaskContext): FoldEvent | null {
   const n = model.n;
   const ta = a.tangent[n];
   const tb = b.tangent[n];
@@ -257,7 +257,7 @@ function foldEvent(model: CompiledModel, k: number, parameters: Float64Array, a:
     v0[i] = a.tangent[i] + s * (b.tangent[i] - a.tangent[i]);
   }
   const mu0 = a.y[n] + s * (b.y[n] - a.y[n]);
-  const located = locateFold(model, k, parameters, x0, v0, mu0, ctx.tolerances);
+  const located = n > LARGE_FOLD_MIN ? locateFoldAlongCurve(system, a, b, ctx.tolerances) : locateFold(model, k, parameters, x0, v0, mu0, ctx.tolerances);
   if (!located.converged) return null;
   // The located fold must lie between the two points (not a different fold further away).
   let gap = 0;
@@ -278,7 +278,7 @@ function foldEvent(model: CompiledModel, k: number, parameters: Float64Array, a:
     parameter: located.parameter,
     state: named(model.variables, located.x),
     after,
-    eigenvalues: stabilityOf(jac, n, ctx.tolerances).eigenvalues,
+    eigenvalues: stabilityOf(jac, n, ctx.tolerances, model.jacobianBand).eigenvalues,
     normalForm: {
       a: nf.a,
       b: nf.b,
