@@ -4,6 +4,7 @@ import { startFakeS3, type FakeS3 } from '../fake-s3/start-fake-s3.ts';
 import { createDataSource } from '@server/data-source.ts';
 import type { Env } from '@server/env.ts';
 import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
+import { createS3Storage } from '@server/storage/s3-storage.ts';
 import { runSeed } from '../seeds/seed.ts';
 import { PostgresCluster, describeDatabaseUrl, ensurePostgresBinaries } from './postgres/postgres-cluster.ts';
 
@@ -114,7 +115,8 @@ export async function prepareLocalStack(env: Env, log: Log, onStarted: (services
   try {
     const dataSource = await migrate(env, log);
     try {
-      await runSeed(dataSource, log);
+      const storage = createS3Storage(env);
+      await runSeed(dataSource, log, { publicUrl: env.PUBLIC_URL, storage }).finally(() => storage.client.destroy());
     } finally {
       await dataSource.destroy();
     }

@@ -3,6 +3,7 @@ import path from 'node:path';
 import type { DataSource, EntityManager } from 'typeorm';
 import { createDataSource } from '@server/data-source.ts';
 import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
+import type { FileStorage } from '@server/storage/file-storage.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
 import { loadEnvOrExit } from '@server/env.ts';
 import { addMember } from '@server/services/members/add-member.ts';
@@ -11,6 +12,7 @@ import { createUser } from '@server/services/users/create-user.ts';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE, type DemoNotebookKey, type DemoPersonKey } from './demo-people.ts';
 import { inProcessPool } from './scenario/in-process-pool.ts';
 import { seedScenarioEntries, type ScenarioDeps } from './scenario/record-entries.ts';
+import { seedFilesAndFigures } from './scenario/files.ts';
 import { seedReviewsAndComments } from './scenario/reviews.ts';
 import { DEMO_SCENARIOS } from './scenario/index.ts';
 
@@ -75,6 +77,8 @@ export interface SeedOptions {
   publicUrl?: string;
   /** The seed date: entries are dated in the days before it (default: now). */
   today?: Date;
+  /** File storage for the demo's attachment and figures (left out when not given). */
+  storage?: FileStorage;
 }
 
 /**
@@ -107,18 +111,25 @@ export async function runSeed(
     dataSource,
     pool: inProcessPool(),
     publicUrl:
-      options.publicUrl ?? process.env.PUBLIC_URL ?? `http://127.0.0.1:${process.env.PORT ?? '3000'}`,
+      options.publicUrl ?? process.env.PUBLIC_URL ?? `http://127.0.0.1:${process.env.PORT ?? '4800'}`,
     people: Object.fromEntries(
       (Object.keys(DEMO_PEOPLE) as DemoPersonKey[]).map((key) => [key, person(state, key)]),
     ) as ScenarioDeps['people'],
     notebooks: state.notebooks as ScenarioDeps['notebooks'],
     today: options.today ?? new Date(),
+    ...(options.storage ? { storage: options.storage } : {}),
   };
   try {
     const entries = await seedScenarioEntries(deps, DEMO_SCENARIOS());
     log(`Seeded ${entries.size} entries with their revisions and cell runs.`);
     await seedReviewsAndComments(deps, entries);
     log('Seeded reviews, a signature and comments.');
+    const { figures } = await seedFilesAndFigures(deps, entries);
+    log(
+      figures
+        ? `Seeded the demo readings, their attachment and ${figures} figures.`
+        : 'Seeded the demo readings (no file storage: no attachment or figures).',
+    );
   } catch (error) {
     log('The demo seed stopped part-way; the demo people and notebooks exist, some entries may be missing.');
     throw error;
@@ -132,7 +143,7 @@ if (isEntryPoint) {
   const env = loadEnvOrExit();
   const dataSource = await createDataSource(env.DATABASE_URL).initialize();
   try {
-    await runSeed(dataSource);
+    await runSeed(dataSource, console.log, { publicUrl: env.PUBLIC_URL });
   } finally {
     await dataSource.destroy();
   }

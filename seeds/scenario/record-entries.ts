@@ -4,6 +4,7 @@ import { EntryEntity } from '@server/entities/entry.entity.ts';
 import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import type { RevisionEntity } from '@server/entities/revision.entity.ts';
 import type { UserEntity } from '@server/entities/user.entity.ts';
+import type { FileStorage } from '@server/storage/file-storage.ts';
 import { runCell } from '@server/services/analysis/run-cell.ts';
 import { createEntry } from '@server/services/entries/create-entry.ts';
 import { loadEntry } from '@server/services/entries/load-entry.ts';
@@ -23,6 +24,8 @@ export interface ScenarioDeps {
   people: Record<DemoPersonKey, UserEntity>;
   notebooks: Record<DemoNotebookKey, NotebookEntity>;
   today: Date;
+  /** Where attachments and figures go; without it the seed makes neither. */
+  storage?: FileStorage;
 }
 
 /** A seeded entry and its newest revision, by scenario key. */

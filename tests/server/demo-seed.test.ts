@@ -1,4 +1,7 @@
 import 'reflect-metadata';
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { DataSource } from 'typeorm';
 import { canonicalJson } from '@shared/cells/hash.ts';
@@ -10,6 +13,9 @@ import type { AnalyzeResult } from '@shared/engine/contract.ts';
 import { createDataSource } from '@server/data-source.ts';
 import { analyze, ENGINE_VERSION } from '@server/engine/index.ts';
 import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
+import { AttachmentEntity } from '@server/entities/attachment.entity.ts';
+import { FigureEntity } from '@server/entities/figure.entity.ts';
+import { MeasurementSetEntity } from '@server/entities/measurement-set.entity.ts';
 import { CommentEntity } from '@server/entities/comment.entity.ts';
 import { EntryEntity } from '@server/entities/entry.entity.ts';
 import { NotebookEntity } from '@server/entities/notebook.entity.ts';
@@ -18,7 +24,11 @@ import { RevisionEntity } from '@server/entities/revision.entity.ts';
 import { SignatureEntity } from '@server/entities/signature.entity.ts';
 import { requestInputHash } from '@server/services/analysis/request-hash.ts';
 import { verifyAuditChain } from '@server/services/audit/verify-audit-chain.ts';
+import { parseEnv } from '@server/env.ts';
+import { createS3Storage } from '@server/storage/s3-storage.ts';
+import { startFakeS3 } from '../../fake-s3/start-fake-s3.ts';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
+import { freePort } from '../support/free-port.ts';
 import { runSeed } from '../../seeds/seed.ts';
 import { DEMO_SCENARIOS } from '../../seeds/scenario/index.ts';
 
@@ -238,4 +248,58 @@ describe('demo seed', () => {
     expect(lines).toEqual(['Demo data already present: not seeding again.']);
     expect(await count()).toEqual(before);
   });
+
+  it('imports the invented pilot-tank readings, labelled as demo data, close to the computed branch', async () => {
+    const set = await dataSource.manager.findOneByOrFail(MeasurementSetEntity, {
+      name: 'Pilot tank readings (demo data, invented)',
+    });
+    expect(set).toMatchObject({ parameterName: 'Da', stateName: 'x2' });
+    expect(set.rows).toHaveLength(10);
+    for (const row of set.rows) expect(row.value).toBeGreaterThan(0);
+  });
+});
+
+describe('demo seed with file storage', () => {
+  it('attaches the readings CSV and renders figures of two branch cells into a fresh database', async () => {
+    const database = `demo_seed_files_${process.pid}`;
+    await dataSource.query(`CREATE DATABASE ${database}`);
+    const url = new URL(inject('databaseUrl'));
+    url.pathname = `/${database}`;
+    const tmp = mkdtempSync(path.join(os.tmpdir(), 'bifolio-demo-seed-'));
+    const s3Port = await freePort();
+    const env = parseEnv({
+      NODE_ENV: 'test',
+      DATABASE_URL: url.toString(),
+      S3_ENDPOINT: `http://127.0.0.1:${s3Port}`,
+      BIFOLIO_DATA_DIR: tmp,
+    });
+    const s3 = await startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+    const storage = createS3Storage(env);
+    const fresh = await createDataSource(env.DATABASE_URL, { poolSize: 2 }).initialize();
+    try {
+      await fresh.runMigrations({ transaction: 'each' });
+      expect(await runSeed(fresh, () => undefined, { storage, publicUrl: 'http://127.0.0.1:4800' })).toBe(
+        true,
+      );
+      const [attachment] = await fresh.manager.find(AttachmentEntity);
+      expect(attachment).toMatchObject({
+        originalName: 'pilot-tank-readings-demo-invented.csv',
+        contentType: 'text/csv',
+      });
+      const bytes = await storage.get(attachment.storageKey);
+      expect(bytes?.toString()).toMatch(/^# DEMO DATA, INVENTED: not measured\./);
+      const figures = await fresh.manager.find(FigureEntity);
+      expect(figures.map((f) => f.cellKind).sort()).toEqual(['branch', 'branch']);
+      for (const figure of figures) {
+        const png = await storage.get(figure.pngKey);
+        expect(png?.subarray(1, 4).toString()).toBe('PNG');
+      }
+    } finally {
+      await fresh.destroy();
+      storage.client.destroy();
+      await s3.close();
+      rmSync(tmp, { recursive: true, force: true });
+      await dataSource.query(`DROP DATABASE IF EXISTS ${database}`);
+    }
+  }, 120_000);
 });

@@ -9,6 +9,7 @@ import { createDataSource } from '@server/data-source.ts';
 import { parseEnv } from '@server/env.ts';
 import { startServer } from '@server/index.ts';
 import { startSmtpSink } from '@server/mail/smtp-sink.ts';
+import { createS3Storage } from '@server/storage/s3-storage.ts';
 import { runSeed } from '../../seeds/seed.ts';
 import { freePort } from './free-port.ts';
 import { startThrowawayCluster } from './pg-cluster.ts';
@@ -51,7 +52,8 @@ export default async function setup(project: TestProject) {
 
     const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 2 }).initialize();
     await dataSource.runMigrations({ transaction: 'each' });
-    await runSeed(dataSource, () => undefined);
+    const storage = createS3Storage(env);
+    await runSeed(dataSource, () => undefined, { publicUrl: env.PUBLIC_URL, storage }).finally(() => storage.client.destroy());
     await dataSource.destroy();
 
     const clientDir = path.join(tmp, 'client');
