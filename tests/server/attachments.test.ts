@@ -1,5 +1,7 @@
 import { createHash } from 'node:crypto';
+import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { TextChecker, binaryTypeOf, claimedTypeOf, decideType } from '@server/services/attachments/sniff-content-type.ts';
 import { attachmentListSchema, attachmentSchema, type Attachment } from '@shared/api/attachments.ts';
 import type { EntryDetail } from '@shared/api/entries.ts';
 import { EntryEntity } from '@server/entities/entry.entity.ts';
@@ -20,6 +22,42 @@ const PNG_1x1 = Buffer.from(
 );
 const PDF_HEAD = Buffer.from('%PDF-1.4\n1 0 obj << >> endobj\ntrailer << >>\n%%EOF\n');
 const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+
+describe('content type from the bytes', () => {
+  it('recognises each accepted signature and nothing else from a name alone', () => {
+    expect(binaryTypeOf(PNG_1x1)).toBe('image/png');
+    expect(binaryTypeOf(Buffer.from([0xff, 0xd8, 0xff, 0xe0]))).toBe('image/jpeg');
+    expect(binaryTypeOf(Buffer.from('GIF89a\x01\x00'))).toBe('image/gif');
+    expect(binaryTypeOf(Buffer.from('RIFF\x10\x00\x00\x00WEBPVP8 '))).toBe('image/webp');
+    expect(binaryTypeOf(Buffer.from('RIFF\x10\x00\x00\x00WAVEfmt '))).toBeNull();
+    expect(binaryTypeOf(PDF_HEAD)).toBe('application/pdf');
+    expect(claimedTypeOf('Photo.JPG', undefined)).toBe('image/jpeg');
+    expect(claimedTypeOf('noext', 'application/octet-stream')).toBeNull();
+  });
+
+  it('splits multi-byte UTF-8 across chunks without calling it binary, and rejects broken UTF-8', () => {
+    const ok = new TextChecker();
+    const bytes = Buffer.from('μ = 0.25 → fold');
+    ok.push(bytes.subarray(0, 1));
+    ok.push(bytes.subarray(1));
+    expect(ok.finish()).toBe(true);
+    const bad = new TextChecker();
+    bad.push(Buffer.from([0x61, 0xc3]));
+    expect(bad.finish()).toBe(false);
+  });
+
+  it('never throws on arbitrary bytes and names', () => {
+    fc.assert(
+      fc.property(fc.uint8Array({ maxLength: 64 }), fc.string({ maxLength: 30 }), fc.option(fc.string({ maxLength: 30 }), { nil: undefined }), (bytes, name, declared) => {
+        const text = new TextChecker();
+        text.push(bytes);
+        const decided = decideType(bytes.subarray(0, 16), text.finish(), claimedTypeOf(name, declared));
+        expect('type' in decided || decided.error.length > 0).toBe(true);
+      }),
+      { numRuns: 500 },
+    );
+  });
+});
 
 describe('attachments API', () => {
   let kofi: Client;

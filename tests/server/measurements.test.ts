@@ -1,3 +1,4 @@
+import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { EntryDetail } from '@shared/api/entries.ts';
 import { measurementSetListSchema, measurementSetSchema } from '@shared/api/measurements.ts';
@@ -59,6 +60,31 @@ describe('measurements CSV reader', () => {
       expect(r.problems).toHaveLength(21);
       expect(r.problems[20]).toEqual({ path: 'csv', message: '10 more bad rows not listed' });
     }
+  });
+});
+
+describe('measurements CSV reader on arbitrary input', () => {
+  it('never throws: it returns rows or problems that each name a field', () => {
+    fc.assert(
+      fc.property(fc.string({ maxLength: 400 }), (csv) => {
+        const r = parseMeasurementsCsv(csv);
+        if (r.ok) for (const row of r.value.rows) expect(Number.isFinite(row.parameter) && Number.isFinite(row.value)).toBe(true);
+        else expect(r.problems.every((p) => p.path.length > 0 && p.message.length > 0)).toBe(true);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it('reads back any table of finite numbers it is given', () => {
+    const value = fc.double({ noNaN: true, noDefaultInfinity: true, min: -1e12, max: 1e12 });
+    fc.assert(
+      fc.property(fc.array(fc.tuple(value, value), { minLength: 1, maxLength: 40 }), (pairs) => {
+        const r = parseMeasurementsCsv(`p,v\n${pairs.map(([a, b]) => `${a},${b}`).join('\n')}`);
+        expect(r.ok).toBe(true);
+        if (r.ok) expect(r.value.rows.map((x) => [x.parameter, x.value]).sort((a, b) => a[0] - b[0])).toEqual([...pairs].sort((a, b) => a[0] - b[0]).map(([a, b]) => [a + 0, b + 0]));
+      }),
+      { numRuns: 200 },
+    );
   });
 });
 
