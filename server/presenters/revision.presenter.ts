@@ -17,6 +17,7 @@ export function presentRevisionSummary(r: RevisionWithAuthor): RevisionSummary {
     createdAt: r.createdAt.toISOString(),
     contentHash: r.contentHash,
     restoredFromId: r.restoredFromId,
+    signatures: (r.signatures ?? []).map(presentSignature),
   };
 }
 
@@ -27,6 +28,5 @@ export function presentRevision(r: RevisionWithAuthor): Revision {
     tags: r.tags,
     document: r.document,
     outputs: r.outputs,
-    signatures: (r.signatures ?? []).map(presentSignature),
   };
 }

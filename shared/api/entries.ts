@@ -172,6 +172,7 @@ export const revisionSummarySchema = revisionSchema.pick({
   createdAt: true,
   contentHash: true,
   restoredFromId: true,
+  signatures: true,
 });
 export type RevisionSummary = z.infer<typeof revisionSummarySchema>;
 

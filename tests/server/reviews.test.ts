@@ -2,7 +2,7 @@ import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { revisionSchema, type EntryDetail, type Revision, type RunCellResponse } from '@shared/api/entries.ts';
+import { revisionListSchema, revisionSchema, type EntryDetail, type Revision, type RunCellResponse } from '@shared/api/entries.ts';
 import type { DocumentJson } from '@shared/editor/document.ts';
 import { reviewDetailSchema, reviewQueueSchema, type ReviewDetail } from '@shared/api/reviews.ts';
 import { startMailOutboxWorker, type MailOutboxWorker } from '@server/jobs/mail-outbox-worker.ts';
@@ -235,6 +235,9 @@ describe('review API', () => {
     // Shown wherever the revision is shown.
     const shown = revisionSchema.parse((await jun.get(`${entryUrl(tank, entry.entry.id)}/revisions/${rev.id}`)).body);
     expect(shown.signatures).toEqual([sig]);
+    const history = revisionListSchema.parse((await jun.get(`${entryUrl(tank, entry.entry.id)}/revisions`)).body);
+    expect(history.revisions.find((r) => r.id === rev.id)?.signatures).toEqual([sig]);
+    expect(history.revisions.find((r) => r.id !== rev.id)?.signatures).toEqual([]);
     const head = (await jun.get(entryUrl(tank, entry.entry.id))).body as EntryDetail;
     expect(head.entry.status).toBe('approved');
     expect(head.head.signatures).toEqual([sig]);

@@ -9,7 +9,7 @@ import { isUuid } from '@server/services/ids.ts';
 export async function listRevisions(ctx: ActingContext, entry: EntryEntity): Promise<RevisionWithAuthor[]> {
   return ctx.manager.find(RevisionEntity, {
     where: { entryId: entry.id },
-    relations: { author: true },
+    relations: { author: true, signatures: { signer: true } },
     select: {
       id: true,
       entryId: true,
@@ -22,6 +22,7 @@ export async function listRevisions(ctx: ActingContext, entry: EntryEntity): Pro
       contentHash: true,
       createdAt: true,
       author: { id: true, name: true },
+      signatures: { id: true, revisionId: true, contentHash: true, printedName: true, meaning: true, signedAt: true, reproducibility: true, signer: { id: true, name: true } },
     },
     order: { number: 'DESC' },
   });
