@@ -8,6 +8,8 @@ export interface FileStorage {
   /** The object's bytes, or null when there is none under `key`. */
   get(key: string): Promise<Buffer | null>;
   delete(key: string): Promise<void>;
+  /** Every object whose key starts with `prefix`, with when it was last written. */
+  list(prefix: string): AsyncIterable<{ key: string; lastModified: Date }>;
   /** A time-limited URL to read the object directly. */
   signedUrl(key: string, expiresInSeconds?: number): Promise<string>;
   /** Throws when the bucket cannot be reached (for the health check). */

@@ -7,6 +7,8 @@ import type { EntryDetail } from '@shared/api/entries.ts';
 import { EntryEntity } from '@server/entities/entry.entity.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
 import { storeAttachment } from '@server/services/attachments/store-attachment.ts';
+import { sweepOrphanedObjects } from '@server/services/attachments/sweep-orphaned-objects.ts';
+import { attachmentKey } from '@server/services/attachments/storage-keys.ts';
 import { receiveUpload } from '@server/services/attachments/receive-upload.ts';
 import { createS3Storage } from '@server/storage/s3-storage.ts';
 import { closeAnalysisPool } from '@server/analysis/analysis-pool.ts';
@@ -201,6 +203,37 @@ describe('attachments API', () => {
     expect(keys).toHaveLength(1);
     expect(await real.get(keys[0])).toBeNull();
     real.client.destroy();
+  });
+});
+
+describe('orphaned objects', () => {
+  beforeAll(startLogServer);
+  afterAll(closeLogServer);
+
+  it('deletes stored files no row points at once they are past the grace period, and keeps recorded ones', async () => {
+    const app = logServer();
+    const storage = createS3Storage(app.env);
+    try {
+      const kofi = await signIn('researcher');
+      const nb = await demoNotebookId('stirredTank');
+      const en = ((await kofi.post(`/api/notebooks/${nb}/entries`, { title: 'Sweep', entryDate: '2026-11-21', tags: [] })).body as EntryDetail).entry.id;
+      const { csrfToken } = (await kofi.agent.get('/api/auth/csrf')).body as { csrfToken: string };
+      const up = await kofi.agent.post(`/api/notebooks/${nb}/entries/${en}/attachments`).set('x-csrf-token', csrfToken).attach('file', PNG_1x1, { filename: 'kept.png' });
+      const [row] = (await app.dataSource.query('SELECT storage_key FROM attachment WHERE id = $1', [up.body.id])) as { storage_key: string }[];
+      const kept = row.storage_key;
+      const orphan = attachmentKey(nb, en);
+      await storage.put(orphan, 'left behind', 'text/plain');
+      // Within the grace period nothing is touched.
+      expect(await sweepOrphanedObjects({ dataSource: app.dataSource, storage })).not.toContain(orphan);
+      const later = new Date(Date.now() + 31 * 60_000);
+      const swept = await sweepOrphanedObjects({ dataSource: app.dataSource, storage }, { now: later });
+      expect(swept).toContain(orphan);
+      expect(swept).not.toContain(kept);
+      expect(await storage.get(orphan)).toBeNull();
+      expect(await storage.get(kept)).toEqual(PNG_1x1);
+    } finally {
+      storage.client.destroy();
+    }
   });
 });
 
