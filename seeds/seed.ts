@@ -87,8 +87,9 @@ export interface SeedOptions {
  * People and notebooks are written in one transaction. The research record follows, through the
  * same services the API uses, each operation in its own transaction as in the app: cells are run
  * by the run service (which stores each result and audits the run), revisions recorded on top of
- * those stored results, then reviews, a signature and comments. Engine runs happen on this thread
- * (see in-process-pool.ts).
+ * those stored results, then reviews, a signature and comments, then the invented readings with
+ * (given file storage) their CSV attachment and figures. Engine runs happen on this thread (see
+ * scenario/in-process-pool.ts). Review and comment mails go to the outbox like any others.
  */
 export async function runSeed(
   dataSource: DataSource,
