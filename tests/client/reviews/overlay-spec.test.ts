@@ -46,7 +46,11 @@ describe('branchOverlaySpec', () => {
 
   it('keeps the stability colours of the branch diagram', () => {
     const colour = layer(spec, 'branches').encoding!.color.scale!;
-    expect(colour.range).toEqual([DEFAULT_PALETTE.stable, DEFAULT_PALETTE.unstable, DEFAULT_PALETTE.muted]);
+    const domain = colour.domain as string[];
+    expect(domain).toContain('stable');
+    expect(domain).toContain('unstable');
+    expect(colour.range![domain.indexOf('stable')]).toBe(DEFAULT_PALETTE.stable);
+    expect(colour.range![domain.indexOf('unstable')]).toBe(DEFAULT_PALETTE.unstable);
   });
 
   it('draws one side alone when the other revision has no result', () => {

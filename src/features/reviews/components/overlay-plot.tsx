@@ -49,8 +49,8 @@ export function OverlayPlot({
   if (!spec) return null;
   return (
     <figure className="mt-3" data-testid="overlay-plot">
-      <LazyPlot spec={spec} label={`${title}: before (faint) and now (strong)`} height={300} />
-      <figcaption className="mt-1 text-xs text-ink-muted">Faint: the older revision. Strong: the newer one.</figcaption>
+      <LazyPlot spec={spec} label={`${title}: the older revision faint and dashed, the newer strong`} height={300} />
+      <figcaption className="mt-1 text-xs text-ink-muted">Faint, dashed: the older revision. Strong, solid: the newer one. Diamonds mark events (folds and other points), triangles cusps.</figcaption>
     </figure>
   );
 }

@@ -17,20 +17,38 @@ type Side = keyof typeof REVISION_LABELS;
 const OPACITY: Record<Side, number> = { older: 0.35, newer: 1 };
 const WIDTH: Record<Side, number> = { older: 1.6, newer: 2.6 };
 
+const REVISION_DOMAIN = [REVISION_LABELS.older, REVISION_LABELS.newer];
 const revisionChannels = {
   opacity: {
     field: 'revision',
-    type: 'nominal' as const,
+    type: 'ordinal' as const,
+    sort: REVISION_DOMAIN,
     title: 'revision',
-    scale: { domain: [REVISION_LABELS.older, REVISION_LABELS.newer], range: [OPACITY.older, OPACITY.newer] },
+    scale: { domain: REVISION_DOMAIN, range: [OPACITY.older, OPACITY.newer] },
+    // Said in the figure's caption: a legend of opacity, width and dash together draws no readable symbol.
+    legend: null,
   },
   strokeWidth: {
     field: 'revision',
-    type: 'nominal' as const,
-    scale: { domain: [REVISION_LABELS.older, REVISION_LABELS.newer], range: [WIDTH.older, WIDTH.newer] },
+    type: 'ordinal' as const,
+    sort: REVISION_DOMAIN,
+    title: 'revision',
+    scale: { domain: REVISION_DOMAIN, range: [WIDTH.older, WIDTH.newer] },
+    legend: null,
+  },
+  /** The older revision is also dashed, so the two stay apart where they nearly coincide (and in print). */
+  strokeDash: {
+    field: 'revision',
+    type: 'ordinal' as const,
+    sort: REVISION_DOMAIN,
+    title: 'revision',
+    scale: { domain: REVISION_DOMAIN, range: [[5, 3], [1, 0]] },
     legend: null,
   },
 };
+
+/** Axes with room between tick labels. */
+const axis = { tickCount: 8, labelOverlap: true, labelFlush: true };
 
 export interface BranchOverlayOptions {
   parameter: string;
@@ -52,8 +70,9 @@ export function branchOverlaySpec(older: ContinuationResult | null, newer: Conti
   const eventRows = sides.flatMap(([side, r]) =>
     r ? r.branch.events.map((e) => ({ revision: REVISION_LABELS[side], kind: e.kind, mu: e.parameter, y: projectState(e.state, o.yVariable) })) : [],
   );
-  const x = quantitativeChannel('mu', displayName(o.parameter), paddedRange(lineRows.map((r) => r.mu), 0.03));
-  const y = quantitativeChannel('y', displayName(o.yVariable), paddedRange([...lineRows.map((r) => r.y), ...eventRows.map((r) => r.y)]));
+  const x = { ...quantitativeChannel('mu', displayName(o.parameter), paddedRange(lineRows.map((r) => r.mu), 0.03)), axis };
+  const y = { ...quantitativeChannel('y', displayName(o.yVariable), paddedRange([...lineRows.map((r) => r.y), ...eventRows.map((r) => r.y)])), axis };
+  const present = (['stable', 'unstable', 'neutral'] as const).filter((k) => lineRows.some((r) => r.stability === k));
   const p = o.palette;
   const layers: object[] = [
     {
@@ -65,7 +84,12 @@ export function branchOverlaySpec(older: ContinuationResult | null, newer: Conti
         y,
         detail: { field: 'segment' },
         order: { field: 'order', type: 'quantitative' },
-        color: { field: 'stability', type: 'nominal', title: 'stability', scale: { domain: ['stable', 'unstable', 'neutral'], range: [p.stable, p.unstable, p.muted] } },
+        color: {
+          field: 'stability',
+          type: 'nominal',
+          title: 'stability',
+          scale: { domain: present, range: present.map((k) => ({ stable: p.stable, unstable: p.unstable, neutral: p.muted })[k]) },
+        },
         ...revisionChannels,
       },
     },
@@ -99,8 +123,8 @@ export function foldCurveOverlaySpec(older: FoldCurveResult | null, newer: FoldC
     r ? r.curve.points.map((pt, order) => ({ revision: REVISION_LABELS[side], a: pt.parameters[p1], b: pt.parameters[p2], order })) : [],
   );
   const cusps = sides.flatMap(([side, r]) => (r ? r.curve.events.map((e) => ({ revision: REVISION_LABELS[side], a: e.parameters[p1], b: e.parameters[p2] })) : []));
-  const x = quantitativeChannel('a', displayName(p1), paddedRange(rows.map((r) => r.a)));
-  const y = quantitativeChannel('b', displayName(p2), paddedRange(rows.map((r) => r.b)));
+  const x = { ...quantitativeChannel('a', displayName(p1), paddedRange(rows.map((r) => r.a))), axis };
+  const y = { ...quantitativeChannel('b', displayName(p2), paddedRange(rows.map((r) => r.b))), axis };
   const layers: object[] = [
     {
       name: 'fold-curves',
@@ -114,7 +138,7 @@ export function foldCurveOverlaySpec(older: FoldCurveResult | null, newer: FoldC
       name: 'cusps',
       data: { values: cusps },
       mark: { type: 'point', shape: 'triangle-up', filled: true, size: 120, color: palette.ink },
-      encoding: { x, y, opacity: revisionChannels.opacity },
+      encoding: { x, y, opacity: { ...revisionChannels.opacity, legend: null } },
     });
   }
   return layeredPlot(palette, layers, { height: 300 }) as TopLevelSpec;
@@ -130,8 +154,8 @@ export function trajectoryOverlaySpec(older: SimulateResult | null, newer: Simul
       idx.map((i) => ({ revision: REVISION_LABELS[side], variable: displayName(name), t: r.trajectory.t[i], value: values[i], key: `${side}:${name}` })),
     );
   });
-  const x = quantitativeChannel('t', 't', paddedRange(rows.map((r) => r.t), 0));
-  const y = quantitativeChannel('value', 'value', paddedRange(rows.map((r) => r.value)));
+  const x = { ...quantitativeChannel('t', 't', paddedRange(rows.map((r) => r.t), 0)), axis };
+  const y = { ...quantitativeChannel('value', 'value', paddedRange(rows.map((r) => r.value))), axis };
   return layeredPlot(
     palette,
     [
