@@ -153,3 +153,32 @@ describe('matchNearest', () => {
     expect(m.onlyA).toEqual([]);
   });
 });
+
+describe('diffCellOutputs: Hopf points', () => {
+  it('describes a Hopf point that moved and one whose criticality changed', () => {
+    // x' = (μ − c)x − y ∓ x(x² + y²), y' = x + (μ − c)y ∓ y(x² + y²): the origin has eigenvalues
+    // (μ − c) ± i, so the Hopf point sits at μ = c; with "−" it is supercritical, with "+"
+    // subcritical (Strogatz, Nonlinear Dynamics and Chaos, §8.2, Examples 8.2.1 and 8.2.2 in polar form).
+    const run = (c: number, sign: '-' | '+') =>
+      branch(
+        {
+          variables: [
+            { name: 'x', rhs: `(mu - ${c})*x - y ${sign} x*(x^2 + y^2)` },
+            { name: 'y', rhs: `x + (mu - ${c})*y ${sign} y*(x^2 + y^2)` },
+          ],
+          parameters: [{ name: 'mu', value: -1 }],
+        },
+        'mu',
+        { x: 0, y: 0 },
+        -1,
+        1,
+      );
+    const before = run(0, '-');
+    const hopf = (o: CellOutput) => (o.result as { branch: { events: { kind: string }[] } }).branch.events.filter((e) => e.kind === 'hopf');
+    expect(hopf(before)).toHaveLength(1);
+    const moved = diffCellOutputs('branch', before, run(0.1, '-'), { parameter: 'mu' }).filter((c) => c.topic === 'hopf');
+    expect(sentences(moved)).toEqual(['Hopf point moved from μ = 0.0000 to μ = 0.1000 (+0.1000)']);
+    const flipped = diffCellOutputs('branch', before, run(0, '+'), { parameter: 'mu' }).filter((c) => c.topic === 'hopf');
+    expect(sentences(flipped)).toEqual(['Hopf point unchanged at μ = 0.0000', 'Hopf point at μ = 0.0000: now subcritical (before: supercritical)']);
+  });
+});
