@@ -2,13 +2,18 @@
  * Engine benchmarks for this machine, one run: `npm run bench`.
  * 1. compiled right-hand side vs a hand-written JS function of the same model (goal ≤ 2×);
  * 2. continuation points per second, with stability, for a two-variable model (goal ≥ 10 000/s);
- * 3. the 50-variable discretised Bratu problem followed through its fold, 300 points (goal < 0.5 s).
+ * 3. the 50-variable discretised Bratu problem followed through its fold, 300 points (goal < 0.5 s);
+ * 4. the 1,000-point Bratu problem (one indexed variable, banded Jacobian) through its fold,
+ *    compilation included (goal < 5 s: "a few seconds");
+ * 5. a Hopf-rich four-variable model (two coupled Brusselators): continuation with stability,
+ *    Hopf detection and first Lyapunov coefficients (goal ≥ 5,000 points/s, both Hopf points found);
+ * 6. Robertson's stiff kinetics to t = 40 with the implicit method (goal < 100 ms).
  * Each figure is the median of several repetitions after a warm-up.
  */
 import { analyze } from '@server/engine/index.ts';
 import { compileModel } from '@server/engine/model/compile.ts';
 import { modelSchema } from '@shared/engine/contract.ts';
-import { bratuModel } from '../tests/engine/models.ts';
+import { bratuModel, coupledBrusselators } from '../tests/engine/models.ts';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 function timeIt(fn: () => void, repeats: number): number {
@@ -105,9 +110,51 @@ const bratuMs = timeIt(() => {
   bratu = analyze(bratuRequest);
 }, 5);
 
+// 4. Bratu, 1,000 points as one indexed variable, through the fold; first call includes compilation.
+const LARGE_N = 1000;
+const largeRequest = {
+  model: { variables: [{ name: 'u', size: LARGE_N, rhs: `(u[i-1] - 2*u[i] + u[i+1])*${(LARGE_N + 1) ** 2} + lambda*exp(u[i])` }], parameters: [{ name: 'lambda', value: 0 }] },
+  task: { kind: 'continuation' as const, parameter: 'lambda', bounds: { min: -1, max: 4 }, maxPoints: 120, direction: 'increasing' as const, step: { initial: 0.05, min: 1e-6, max: 0.5 } },
+};
+let t0 = performance.now();
+let large = analyze(largeRequest);
+const largeFirstMs = performance.now() - t0;
+t0 = performance.now();
+large = analyze(largeRequest);
+const largeMs = performance.now() - t0;
+const largeFold = large.branch.events.find((e) => e.kind === 'fold');
+
+// 5. Two coupled Brusselators: Hopf points at b = 5 and b = 5.6 (closed form in tests/engine/models.ts).
+const hopfRequest = {
+  model: coupledBrusselators(),
+  task: { kind: 'continuation' as const, parameter: 'b', start: { x1: 2, y1: 0.5, x2: 2, y2: 0.5 }, bounds: { min: 0.5, max: 8 }, maxPoints: 20000, direction: 'increasing' as const, step: { initial: 0.001, min: 1e-6, max: 0.002 } },
+};
+let hopfPoints = 0;
+let hopfEvents: number[] = [];
+const hopfMs = timeIt(() => {
+  const r = analyze(hopfRequest);
+  hopfPoints = r.branch.points.length;
+  hopfEvents = r.branch.events.filter((e) => e.kind === 'hopf').map((e) => e.parameter);
+}, 5);
+
+// 6. Robertson's problem, implicit method.
+const robertsonRequest = {
+  model: {
+    variables: [{ name: 'y1', rhs: '-0.04*y1 + 1e4*y2*y3' }, { name: 'y2', rhs: '0.04*y1 - 1e4*y2*y3 - 3e7*y2^2' }, { name: 'y3', rhs: '3e7*y2^2' }],
+  },
+  task: { kind: 'simulate' as const, initial: { y1: 1 }, time: { end: 40, samples: 41 }, tolerance: { relative: 1e-6, absolute: 1e-12 }, method: 'implicit' as const },
+};
+let robertsonSteps = 0;
+const robertsonMs = timeIt(() => {
+  robertsonSteps = analyze(robertsonRequest).steps.accepted;
+}, 5);
+
 const rows = [
   ['compiled vs hand-written f (3 variables, 2e6 calls)', `${compiledMs.toFixed(1)} ms vs ${handMs.toFixed(1)} ms`, `ratio ${(compiledMs / handMs).toFixed(2)}×`, 'ratio ≤ 2×', compiledMs / handMs <= 2],
   ['continuation with stability (2 variables)', `${contPoints} points, ${contFolds} folds in ${contMs.toFixed(1)} ms`, `${Math.round((contPoints / contMs) * 1000).toLocaleString('en')} points/s`, '≥ 10,000 points/s', (contPoints / contMs) * 1000 >= 10_000],
+  ['Bratu, 1,000 points (indexed, banded), through the fold', `${large.branch.points.length} points, fold at λ = ${largeFold?.parameter.toFixed(6) ?? 'none'}`, `${largeMs.toFixed(0)} ms (first call incl. compile ${largeFirstMs.toFixed(0)} ms)`, '< 5,000 ms incl. compile', largeFirstMs < 5000 && largeFold !== undefined],
+  ['two coupled Brusselators (4 variables), Hopf points', `${hopfPoints} points, Hopf at b = ${hopfEvents.map((b) => b.toFixed(6)).join(', ')}`, `${Math.round((hopfPoints / hopfMs) * 1000).toLocaleString('en')} points/s`, '≥ 5,000 points/s, 2 Hopf', (hopfPoints / hopfMs) * 1000 >= 5000 && hopfEvents.length === 2],
+  ["Robertson's problem to t = 40, implicit", `${robertsonSteps} steps`, `${robertsonMs.toFixed(1)} ms`, '< 100 ms', robertsonMs < 100],
   ['Bratu, 50 variables, through the fold', `${bratu.branch.points.length} points, fold at λ = ${bratu.branch.events[0]?.parameter.toFixed(6) ?? 'none'}`, `${bratuMs.toFixed(0)} ms (first call incl. compile ${bratuFirstMs.toFixed(0)} ms)`, '< 500 ms for 300 points', bratuMs < 500 && bratu.branch.points.length === 300 && bratu.branch.events.length === 1],
 ] as const;
 

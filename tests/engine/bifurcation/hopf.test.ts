@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { analyze, type Branch, type HopfEvent, type ModelInput } from '@server/engine/index.ts';
 import { continuationResultSchema } from '@shared/engine/contract.ts';
 import { expectClose } from '../../support/tolerances.ts';
+import { coupledBrusselators } from '../models.ts';
 
 const run = (model: ModelInput, parameter: string, start: Record<string, number>, min: number, max: number): Branch => {
   const r = analyze({ model, task: { kind: 'continuation', parameter, start, bounds: { min, max } } });
@@ -96,5 +97,24 @@ describe('Hopf points: not confused with a neutral saddle', () => {
     const b = run({ variables: [{ name: 'x', rhs: 'mu*x + y' }, { name: 'y', rhs: 'x + mu*y' }], parameters: [{ name: 'mu', value: -0.5 }] }, 'mu', {}, -0.5, 0.5);
     expect(b.events).toEqual([]);
     expect(b.points.every((p) => p.unstableDimension === 1)).toBe(true);
+  });
+});
+
+describe('Hopf points: two coupled Brusselators (four variables)', () => {
+  it('finds the in-phase and anti-phase Hopf points of the closed form', () => {
+    const [a, dx, dy] = [2, 0.1, 0.2];
+    const branch = run(coupledBrusselators(a, dx, dy), 'b', { x1: a, y1: 0.5, x2: a, y2: 0.5 }, 0.5, 8);
+    const found = hopfs(branch);
+    expect(found).toHaveLength(2);
+    expectClose(found[0].parameter, 1 + a * a, 1e-10);
+    expectClose(found[0].frequency, a, 1e-9);
+    const b2 = 1 + a * a + 2 * (dx + dy);
+    expectClose(found[1].parameter, b2, 1e-10);
+    // det of the anti-phase block [[b − 1 − 2dx, a²], [−b, −a² − 2dy]] at b2.
+    const det = -(b2 - 1 - 2 * dx) * (a * a + 2 * dy) + b2 * a * a;
+    expectClose(found[1].frequency, Math.sqrt(det), 1e-9);
+    // The in-phase Hopf point is that of one Brusselator on the synchronous subspace: supercritical (from memory).
+    expect(found[0].criticality).toBe('supercritical');
+    expect(branch.points.at(-1)!.unstableDimension).toBe(4);
   });
 });
