@@ -170,6 +170,8 @@ describe('review of an entry', () => {
     await page.goto(reviewUrl());
     await page.getByRole('heading', { name: title }).waitFor();
     await page.getByTestId('revision-comparison').locator('ins').filter({ hasText: '−0.01' }).first().waitFor();
+    // The PI looked at revision #3 when requesting changes: the comparison starts there.
+    await expect(page.getByRole('button', { name: 'Since you last looked' }).getAttribute('aria-pressed')).resolves.toBe('true');
     await page.getByRole('button', { name: 'Approve…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Approve and sign' });
     await dialog.getByText(DEMO_PEOPLE.pi.name).waitFor();

@@ -22,10 +22,15 @@ import { SignatureBlock } from './signature-block.tsx';
 import { SubmitForReviewButton } from './submit-for-review-button.tsx';
 
 /** Named starting points for the comparison, newest-first revisions given. */
-export function comparePresets(revisions: readonly RevisionSummary[], review: ReviewDetail | null, toId: string): ComparePreset[] {
+export function comparePresets(
+  revisions: readonly RevisionSummary[],
+  review: ReviewDetail | null,
+  toId: string,
+  /** The caller's last-seen revision when the page opened (opening it marks the current one seen). */
+  seen: string | null = review?.myLastSeenRevisionId ?? null,
+): ComparePreset[] {
   const out: ComparePreset[] = [];
   const to = revisions.find((r) => r.id === toId);
-  const seen = review?.myLastSeenRevisionId;
   if (seen && seen !== toId) out.push({ label: 'Since you last looked', fromId: seen });
   const submitted = review ? revisions.find((r) => r.id === review.review.submittedRevisionId) : undefined;
   if (submitted && submitted.id !== toId) out.push({ label: 'Since it was submitted', fromId: submitted.id });
@@ -47,18 +52,21 @@ export function EntryReviewPage({ notebookId, entryId, isPi, canWrite, me }: { n
   const revisions = useRevisions(notebookId, entryId);
   const comments = useComments(notebookId, entryId);
   const markSeen = useMarkSeen(notebookId, entryId);
-  const [choice, setChoice] = useState<{ fromId: string; toId: string } | null>(null);
+  const [choice, setChoice] = useState<{ fromId: string; toId: string; seenAtOpen: string | null } | null>(null);
   const [target, setTarget] = useState<AnchorChoice | null>(null);
 
   const detail = review.data ?? null;
   const list = useMemo(() => revisions.data?.revisions ?? [], [revisions.data]);
   const defaultTo = detail?.review.revisionId ?? entry.data?.head.id ?? '';
-  const presets = useMemo(() => comparePresets(list, detail, choice?.toId ?? defaultTo), [list, detail, choice, defaultTo]);
+  const presets = useMemo(
+    () => comparePresets(list, detail, choice?.toId ?? defaultTo, choice ? choice.seenAtOpen : (detail?.myLastSeenRevisionId ?? null)),
+    [list, detail, choice, defaultTo],
+  );
 
   // The first comparison shown is fixed once the data is in (marking as seen must not move it):
   // state adjusted while rendering, before the effect below marks the revision as seen.
   if (!choice && entry.data && !review.isPending && revisions.data) {
-    setChoice({ fromId: presets[0]?.fromId ?? defaultTo, toId: defaultTo });
+    setChoice({ fromId: presets[0]?.fromId ?? defaultTo, toId: defaultTo, seenAtOpen: detail?.myLastSeenRevisionId ?? null });
   }
 
   // A PI who opened the open review has seen its current revision.
@@ -133,7 +141,7 @@ export function EntryReviewPage({ notebookId, entryId, isPi, canWrite, me }: { n
       )}
       <div className="grid gap-8 lg:grid-cols-[minmax(0,1fr)_20rem]">
         <div className="space-y-4">
-          <ComparePicker revisions={list} fromId={choice.fromId} toId={choice.toId} presets={presets} onChange={(fromId, toId) => setChoice({ fromId, toId })} />
+          <ComparePicker revisions={list} fromId={choice.fromId} toId={choice.toId} presets={presets} onChange={(fromId, toId) => setChoice({ fromId, toId, seenAtOpen: choice.seenAtOpen })} />
           <LoadedComparison notebookId={notebookId} entryId={entryId} fromId={choice.fromId} toId={choice.toId}>
             {(a, b) => (
               <RevisionComparison
