@@ -41,6 +41,9 @@ describe('simulate: stiff models (Rosenbrock method)', () => {
     implicit.trajectory.t.forEach((_, i) => expectClose(implicit.trajectory.state.y1[i] + implicit.trajectory.state.y2[i] + implicit.trajectory.state.y3[i], 1, 1e-12));
   });
 
+  // Step counts measured (engine 1.1.0): implicit (rtol 1e-6) 1,010 accepted / 2 rejected;
+  // explicit (rtol 1e-10) 61,929 / 4; auto (rtol 1e-6) 884, of which 816 implicit after the switch
+  // at t ≈ 0.042.
   it('agrees with the explicit method run at a tight tolerance, in far fewer steps', () => {
     const a = at40(explicit);
     expectClose(a.y1, REFERENCE.y1, 1e-8);
@@ -49,7 +52,6 @@ describe('simulate: stiff models (Rosenbrock method)', () => {
       expectClose(implicit.trajectory.state.y1[i], explicit.trajectory.state.y1[i], 1e-6);
       expectClose(implicit.trajectory.state.y2[i], explicit.trajectory.state.y2[i], 1e-5, 1e-12);
     });
-    console.info(`Robertson to t = 40: implicit ${implicit.steps.accepted} accepted / ${implicit.steps.rejected} rejected steps; explicit (rtol 1e-10) ${explicit.steps.accepted} / ${explicit.steps.rejected}; auto ${auto.steps.accepted} (${auto.steps.implicit} implicit, switched at t = ${auto.method?.switchedAt})`);
     expect(implicit.steps.accepted * 20).toBeLessThan(explicit.steps.accepted);
     expect(implicit.method).toEqual({ used: 'implicit' });
   });

@@ -1,5 +1,4 @@
 import { type CodimensionTwoEvent, type Eigenvalue, type FoldCurve, type FoldCurvePoint, type FoldCurveTask } from '@shared/engine/contract.ts';
-import { EngineRequestError } from '../errors.ts';
 import { locateAlongCurve } from '../bifurcation/cusp.ts';
 import { locateFold } from '../bifurcation/fold.ts';
 import { FoldSystem } from '../bifurcation/fold-system.ts';
