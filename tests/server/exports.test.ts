@@ -6,6 +6,8 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCellResponseSchema, type EntryDetail, type Revision } from '@shared/api/entries.ts';
 import { exportSourceSchema } from '@shared/api/exports.ts';
+import type { FoldCurveResult, SimulateResult } from '@shared/engine/contract.ts';
+import { csvField, resultCsv } from '@server/services/exports/result-csv.ts';
 import { expectClose } from '../support/tolerances.ts';
 import {
   SADDLE_BRANCH_CELL_ID,
@@ -21,11 +23,45 @@ import {
 } from './entries-support.ts';
 
 const sha = (b: Buffer | string) => createHash('sha256').update(b).digest('hex');
-const binary = (res: { on: (e: string, cb: (c?: Buffer) => void) => void; setEncoding: (e: string) => void }, cb: (e: Error | null, b: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  res.on('data', (c) => chunks.push(c as Buffer));
-  res.on('end', () => cb(null, Buffer.concat(chunks)));
-};
+describe('result CSV', () => {
+  const engine = { version: 'test', elapsedMs: 1 };
+
+  it('quotes fields the way RFC 4180 §2 says (separators, quotes, line breaks, edge spaces)', () => {
+    expect(csvField('plain')).toBe('plain');
+    expect(csvField('a,b')).toBe('"a,b"');
+    expect(csvField('say "fold"')).toBe('"say ""fold"""');
+    expect(csvField('two\nlines')).toBe('"two\nlines"');
+    expect(csvField(' padded')).toBe('" padded"');
+    expect(csvField(0.1 + 0.2)).toBe('0.30000000000000004');
+    expect(csvField(Number.NaN)).toBe('');
+  });
+
+  it('writes trajectory samples as t and one column per variable', () => {
+    // x(t) = e^(−t), the solution of x′ = −x from x(0) = 1 (closed form).
+    const t = [0, 0.5, 1];
+    const result: SimulateResult = { trajectory: { t, state: { x: t.map((s) => Math.exp(-s)), y: [1, 2, 3] } }, stopReason: 'end', steps: { accepted: 3, rejected: 0 }, engine };
+    const [header, ...rows] = resultCsv(result, {}).trim().split('\r\n');
+    expect(header).toBe('t,x,y');
+    expect(rows.map((r) => Number(r.split(',')[1]))).toEqual(t.map((s) => Math.exp(-s)));
+  });
+
+  it('writes fold-curve points with both parameters and marks the cusp', () => {
+    // On the fold curve of x′ = h + r x − x³: r = 3x², h = −2x³ (Strogatz, Nonlinear Dynamics and Chaos, §3.6).
+    const xs = [-0.5, 0, 0.5];
+    const result: FoldCurveResult = {
+      curve: {
+        points: xs.map((x) => ({ parameters: { h: -2 * x ** 3, r: 3 * x * x }, state: { x }, normalForm: { a: 1, b: -6 * x }, residual: 0 })),
+        events: [{ kind: 'cusp', parameters: { h: 0, r: 0 }, state: { x: 0 }, after: 1 }],
+        stopReason: 'bounds',
+      },
+      engine,
+    };
+    const lines = resultCsv(result, { parameters: ['h', 'r'] }).trim().split('\r\n');
+    expect(lines[0]).toBe('index,h,r,x,event_after_point');
+    expect(lines[1]).toBe('0,0.25,0.75,-0.5,');
+    expect(lines[2]).toBe('1,0,0,0,cusp');
+  });
+});
 
 describe('exports API', () => {
   let kofi: Client;
@@ -113,7 +149,7 @@ describe('exports API', () => {
   });
 
   it('packs the whole entry into one ZIP whose files match their recorded hashes', async () => {
-    const res = await jun.agent.get(`${base}/export/archive`).buffer(true).parse(binary);
+    const res = await jun.agent.get(`${base}/export/archive`).responseType('blob');
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/zip');
     const dir = mkdtempSync(path.join(os.tmpdir(), 'bifolio-zip-'));
