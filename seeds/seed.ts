@@ -34,7 +34,7 @@ const person = (state: SeedState, key: DemoPersonKey): UserEntity => {
   return user;
 };
 
-/** The demo scenario, in order. Later steps (entries, revisions) append here. */
+/** The demo group and its notebooks, in order, in one transaction (the research record follows in runSeed). */
 export const SEED_STEPS: SeedStep[] = [
   {
     name: 'people',
