@@ -8,9 +8,11 @@ export const ENGINE_LIMITS = {
   /** State variables of one model (a 50-point discretised boundary-value problem must fit). */
   variablesMax: 120,
   /** Entries of one indexed variable (a discretised spatial model). */
-  indexedSizeMax: 5000,
+  indexedSizeMax: 1000,
   /** State dimension once indexed variables are written out. */
-  stateMax: 10000,
+  stateMax: 1200,
+  /** State dimension above which fold and Hopf curves are refused (their extended systems are dense). */
+  curveStateMax: 200,
   /** Named parameters of one model. */
   parametersMax: 60,
   /** Named definitions (intermediate expressions) of one model. */

@@ -51,6 +51,17 @@ describe('indexed variables', () => {
   });
 });
 
+describe('limits of large models', () => {
+  it('refuses a fold curve of a 300-entry model with a clear message', () => {
+    expect(() => analyze({ model: { ...indexedBratu(300), parameters: [{ name: 'lambda', value: 1 }, { name: 'k', value: 0 }] }, task: { kind: 'fold-curve', parameters: ['lambda', 'k'], start: { parameters: {} }, bounds: { lambda: [0, 4], k: [-1, 1] } } })).toThrow(/at most 200 state entries; this one has 300/);
+  });
+
+  it('refuses more entries than the limit, naming the field', () => {
+    const errors = validateModel({ variables: [{ name: 'u', size: 5000, rhs: 'u[i]' }] });
+    expect(errors[0].path).toBe('model.variables[0].size');
+  });
+});
+
 describe('large discretised systems (banded Jacobian)', () => {
   // Continuum fold of the Bratu problem: λ_c = 8t²/cosh²t with t·tanh t = 1, λ_c ≈ 3.513830719
   // (closed form from the exact solution; Bratu 1914, as quoted e.g. by Boyd, "An analytical and

@@ -1,4 +1,5 @@
 import { ENGINE_ERROR_CODES, type FoldCurveTask, type HopfCurveTask } from '@shared/engine/contract.ts';
+import { ENGINE_LIMITS } from '@shared/engine/limits.ts';
 import { EngineRequestError } from '../errors.ts';
 import type { CompiledModel } from '../model/compile.ts';
 import { parameterIndex, vectorFrom } from './present.ts';
@@ -9,6 +10,12 @@ import { parameterIndex, vectorFrom } from './present.ts';
  * indices and the start's parameter vector.
  */
 export function twoParameterSetup(model: CompiledModel, task: FoldCurveTask | HopfCurveTask) {
+  if (model.n > ENGINE_LIMITS.curveStateMax)
+    throw new EngineRequestError({
+      code: ENGINE_ERROR_CODES.invalidRequest,
+      message: `${task.kind === 'fold-curve' ? 'Fold' : 'Hopf'} curves are computed for models with at most ${ENGINE_LIMITS.curveStateMax} state entries; this one has ${model.n}`,
+      path: 'model.variables',
+    });
   const [name1, name2] = task.parameters;
   const k1 = parameterIndex(model, name1, 'task.parameters[0]');
   const k2 = parameterIndex(model, name2, 'task.parameters[1]');
