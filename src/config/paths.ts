@@ -30,6 +30,7 @@ export const paths = {
       `/notebooks/${notebookId}/entries/${entryId}/compare${from && to ? `?from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}` : ''}`,
   },
   reviewQueue: { path: '/reviews', getHref: () => '/reviews' },
+  search: { path: '/search', getHref: () => '/search' },
   audit: {
     path: '/audit',
     getHref: (filter: { notebookId?: string; entryId?: string; actorId?: string } = {}) => {

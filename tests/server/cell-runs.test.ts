@@ -62,9 +62,11 @@ describe('cell runs API', () => {
     expect(Date.parse(output.computedAt)).toBeGreaterThan(Date.now() - 60_000);
     const folds = (output.result as ContinuationResult).branch.events;
     expect(folds).toHaveLength(1);
-    expect(folds[0].parameter).toBeCloseTo(0, 6);
-    expect(folds[0].normalForm.a).toBeCloseTo(1, 4);
-    expect(folds[0].normalForm.b).toBeCloseTo(-2, 4);
+    const fold = folds[0];
+    if (fold.kind !== 'fold') throw new Error(`expected a fold, got ${fold.kind}`);
+    expect(fold.parameter).toBeCloseTo(0, 6);
+    expect(fold.normalForm.a).toBeCloseTo(1, 4);
+    expect(fold.normalForm.b).toBeCloseTo(-2, 4);
     expect(await auditActionsFor(entry.entry.id)).toContain('cell.run');
 
     // Same model and task, defaults left out: same hash, answered from the store.

@@ -7,7 +7,7 @@ import { cn } from './cn.ts';
 import { Wordmark } from './logo.tsx';
 import { ThemeToggle } from './theme-toggle.tsx';
 
-export type ShellUser = { name: string; email: string; siteRole: SiteRole };
+export type ShellUser = { id: string; name: string; email: string; siteRole: SiteRole };
 
 const navClass = ({ isActive }: { isActive: boolean }) =>
   cn(
@@ -148,6 +148,15 @@ export function AppShell({
         <nav aria-label="Main" className="flex flex-1 flex-wrap items-center gap-1">
           <NavLink to={paths.notebooks.getHref()} end className={navClass}>
             Notebooks
+          </NavLink>
+          <NavLink to={paths.search.getHref()} className={navClass}>
+            Search
+          </NavLink>
+          <NavLink to={paths.reviewQueue.getHref()} className={navClass}>
+            Reviews
+          </NavLink>
+          <NavLink to={paths.audit.getHref({ actorId: user.id })} className={navClass}>
+            My activity
           </NavLink>
           {admin && (
             <>

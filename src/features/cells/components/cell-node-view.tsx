@@ -285,6 +285,9 @@ export function CellNodeView({
             </p>
           )}
           <div className={cn(freshness === 'stale' && 'opacity-60 transition-opacity')}>{result}</div>
+          {result && output?.status === 'ok' && rt.cellExtras && (
+            <div className="mt-2 flex flex-wrap justify-end gap-2">{rt.cellExtras({ id, kind })}</div>
+          )}
           {output && <OutputStamp output={output} cached={!!rt.cached[id]} />}
         </CellErrorBoundary>
       </div>

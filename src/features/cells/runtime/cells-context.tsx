@@ -1,4 +1,4 @@
-import { createContext, useContext } from 'react';
+import { createContext, useContext, type ReactNode } from 'react';
 import type { CellOutput, CellOutputs } from '@shared/cells/output.ts';
 import type { Freshness } from '@shared/cells/resolve.ts';
 import type { FieldProblem } from '@shared/cells/inputs.ts';
@@ -32,6 +32,11 @@ export interface CellsRuntime {
   runAllStale: () => void;
   /** Live check of a model by the engine's parser. */
   validateModel: (model: Model, signal: AbortSignal) => Promise<FieldProblem[]>;
+  /**
+   * Extra actions the page composes under an analysis cell's result (e.g. "attach as figure");
+   * given the cell, returns nothing to add nothing.
+   */
+  cellExtras?: (cell: { id: string; kind: DocumentCell['kind'] }) => ReactNode;
 }
 
 export const CellsContext = createContext<CellsRuntime | null>(null);

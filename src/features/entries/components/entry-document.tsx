@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef } from 'react';
+import { useCallback, useEffect, useMemo, useRef, type ReactNode } from 'react';
 import type { CellKind } from '@shared/cells/kinds.ts';
 import type { CellOutputs } from '@shared/cells/output.ts';
 import type { ResolvedRequest } from '@shared/cells/resolve.ts';
@@ -27,6 +27,8 @@ type EntryDocumentProps = {
   /** Change it to load a different document into the editor. */
   editorKey: string;
   label?: string;
+  /** Actions composed under each analysis cell's result (see CellsRuntime.cellExtras). */
+  cellExtras?: (cell: { id: string; kind: CellKind }) => ReactNode;
 };
 
 /** A bar above the body: how many cells are stale or running, and one action to rerun the stale ones in order. */
@@ -74,6 +76,7 @@ export function EntryDocument({
   editable,
   editorKey,
   label,
+  cellExtras,
 }: EntryDocumentProps) {
   const send = useCallback(
     (cellId: string, request: ResolvedRequest, signal: AbortSignal) =>
@@ -84,7 +87,7 @@ export function EntryDocument({
     async (model: Model, signal: AbortSignal) => (await validateModel(model, signal)).errors,
     [],
   );
-  const rt = useCellRunner({
+  const runner = useCellRunner({
     doc: document,
     outputs,
     setOutputs: onOutputs ?? noOutputs,
@@ -92,6 +95,7 @@ export function EntryDocument({
     send,
     validateModel: check,
   });
+  const rt = useMemo(() => (cellExtras ? { ...runner, cellExtras } : runner), [runner, cellExtras]);
   const cellsRef = useRef(rt.cells);
   useEffect(() => {
     cellsRef.current = rt.cells;

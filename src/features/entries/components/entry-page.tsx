@@ -1,6 +1,7 @@
 import { useQueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
-import { ENTRY_STATUS_LABELS, type EntryDetail, type Revision } from '@shared/api/entries.ts';
+import { useCallback, useState, type ReactNode } from 'react';
+import { ENTRY_STATUS_LABELS, type EntryDetail, type EntrySummary, type Revision } from '@shared/api/entries.ts';
+import type { CellKind } from '@shared/cells/kinds.ts';
 import { mergeDocuments, mergeValue } from '@shared/editor/merge.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
@@ -28,10 +29,33 @@ import {
 } from './use-working-copy.ts';
 import type { DiffSide } from './text-diff.tsx';
 
-type EntryPageProps = { notebookId: string; entryId: string; canWrite: boolean };
+/** What the page hands to the parts a route composes around the entry. */
+export interface EntrySlotContext {
+  entry: EntrySummary;
+  /** The newest recorded revision (what reviews, figures and exports refer to). */
+  head: Revision;
+  /** True when the working copy has changes not yet recorded as a revision. */
+  unrecorded: boolean;
+  /** Places an image at the end of the working document (researchers and PIs only). */
+  insertImage?: (image: { src: string; alt: string }) => void;
+}
+
+/** Places where a route adds other features' parts (reviews, files, exports) to the entry page. */
+export interface EntryPageSlots {
+  /** Buttons beside "History" and "Record revision". */
+  headerActions?: (ctx: EntrySlotContext) => ReactNode;
+  /** Above the document (e.g. the signatures on the head revision). */
+  beforeDocument?: (ctx: EntrySlotContext) => ReactNode;
+  /** Below the document (e.g. attachments and measured data). */
+  afterDocument?: (ctx: EntrySlotContext) => ReactNode;
+  /** Under each analysis cell's result (e.g. "attach as figure"). */
+  cellExtras?: (cell: { id: string; kind: CellKind }, ctx: EntrySlotContext) => ReactNode;
+}
+
+type EntryPageProps = { notebookId: string; entryId: string; canWrite: boolean; slots?: EntryPageSlots };
 
 /** The entry page: loads the entry, then the editor with its working copy. */
-export function EntryPage({ notebookId, entryId, canWrite }: EntryPageProps) {
+export function EntryPage({ notebookId, entryId, canWrite, slots }: EntryPageProps) {
   const q = useEntry(notebookId, entryId);
   if (q.isPending) return <SkeletonBlock lines={8} label="Loading the entry" />;
   if (q.isError) return <QueryError error={q.error} what="the entry" onRetry={() => void q.refetch()} />;
@@ -42,6 +66,7 @@ export function EntryPage({ notebookId, entryId, canWrite }: EntryPageProps) {
       entryId={entryId}
       canWrite={canWrite}
       detail={q.data}
+      slots={slots}
     />
   );
 }
@@ -77,7 +102,13 @@ const parseTags = (text: string) =>
     .map((t) => t.trim())
     .filter(Boolean);
 
-function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProps & { detail: EntryDetail }) {
+function EntryWorkspace({
+  notebookId,
+  entryId,
+  canWrite,
+  detail,
+  slots,
+}: EntryPageProps & { detail: EntryDetail }) {
   const qc = useQueryClient();
   const wc = useWorkingCopy(notebookId, entryId, detail, canWrite);
   const { working, update, head } = wc;
@@ -93,6 +124,32 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
   const [reading, setReading] = useState<string | null>(null);
   const [tagsDraft, setTagsDraft] = useState(tagsText(working.tags));
   const restore = useRestoreRevision(notebookId, entryId);
+  const insertImage = useCallback(
+    (image: { src: string; alt: string }) =>
+      wc.replace(
+        {
+          ...working,
+          document: {
+            ...working.document,
+            content: [...(working.document.content ?? []), { type: 'image', attrs: { src: image.src, alt: image.alt } }],
+          },
+        },
+        { dirty: true },
+      ),
+    [wc, working],
+  );
+  const slotCtx: EntrySlotContext = {
+    entry: detail.entry,
+    head,
+    unrecorded: wc.unrecorded,
+    insertImage: canWrite ? insertImage : undefined,
+  };
+  const cellExtras = slots?.cellExtras;
+  const extrasForCell = useCallback(
+    (cell: { id: string; kind: CellKind }) => cellExtras?.(cell, slotCtx),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [cellExtras, head.id, wc.unrecorded],
+  );
 
   const afterNewHead = (rev: Revision) => {
     wc.setHead(rev);
@@ -264,7 +321,8 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
                 </div>
               </div>
               <div className="flex flex-col items-end gap-2">
-                <div className="flex gap-2">
+                <div className="flex flex-wrap justify-end gap-2">
+                  {slots?.headerActions?.(slotCtx)}
                   <Button
                     variant="secondary"
                     size="sm"
@@ -292,6 +350,7 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
                 Recording will show you what changed and let you rebase.
               </p>
             )}
+            {slots?.beforeDocument?.(slotCtx)}
             <EntryDocument
               notebookId={notebookId}
               entryId={entryId}
@@ -301,7 +360,9 @@ function EntryWorkspace({ notebookId, entryId, canWrite, detail }: EntryPageProp
               onOutputs={(f) => update((w) => ({ outputs: f(w.outputs) }))}
               editable={canWrite}
               editorKey={wc.editorKey}
+              cellExtras={slots?.cellExtras ? extrasForCell : undefined}
             />
+            {slots?.afterDocument?.(slotCtx)}
           </>
         )}
       </div>
