@@ -41,7 +41,7 @@ export function EntryEditor({
       attributes: {
         // Text keeps a readable measure; cells take the full width of the page.
         class:
-          'bf-prose prose-log max-w-none! min-h-[16rem] px-6 py-6 focus:outline-none [&>*:not(.bf-cell-node)]:mx-auto [&>*:not(.bf-cell-node)]:max-w-[68ch]',
+          'bf-prose prose-log max-w-none! min-h-[16rem] px-6 py-6 focus:outline-none [&>*:not(.bf-cell-node)]:mx-auto [&>*:not(.bf-cell-node)]:max-w-[40rem]',
         'aria-label': label,
         role: 'textbox',
         'aria-multiline': 'true',

@@ -261,7 +261,7 @@ function EntryWorkspace({
         ) : (
           <>
             <div className="mb-4 flex flex-wrap items-start gap-3">
-              <div className="min-w-0 flex-1">
+              <div className="w-full">
                 {canWrite ? (
                   <input
                     aria-label="Title"
@@ -320,8 +320,8 @@ function EntryWorkspace({
                   )}
                 </div>
               </div>
-              <div className="flex flex-col items-end gap-2">
-                <div className="flex flex-wrap justify-end gap-2">
+              <div className="flex w-full flex-wrap items-center justify-between gap-2">
+                <div className="flex flex-wrap gap-2">
                   {slots?.headerActions?.(slotCtx)}
                   <Button
                     variant="secondary"

@@ -49,7 +49,7 @@ export function SubmitForReviewButton({
   const error = submit.error instanceof ApiError ? submit.error : null;
   return (
     <>
-      <Button variant="secondary" disabled={disabled} onClick={() => setOpen(true)}>
+      <Button variant="secondary" size="sm" disabled={disabled} onClick={() => setOpen(true)}>
         {label}
       </Button>
       <Dialog open={open} onClose={close} title="Submit for review" description="The PIs of this notebook will be asked to review the entry as recorded now.">
