@@ -187,6 +187,8 @@ describe('an entry with cells', () => {
     await page.getByTestId('save-state').getByText('recorded', { exact: true }).waitFor();
     await page.screenshot({ path: `${SCREENSHOT_DIR}entry-page.png`, fullPage: true });
     await page.reload();
+    // Plots load only when on screen: bring the branch cell into view first.
+    await cell('branch').scrollIntoViewIfNeeded();
     await cell('branch').locator('svg').first().waitFor();
     expect(await page.getByRole('textbox', { name: 'Entry body' }).textContent()).toContain(
       'Heat balance of the tank',
