@@ -2,7 +2,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from 'v
 import type { Locator, Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS } from '../../seeds/demo-people.ts';
 import { launchBrowser } from '../support/browser.ts';
-import { SCREENSHOT_DIR, seriousAxeViolations, signIn } from './helpers.ts';
+import { SCREENSHOT_DIR, seriousAxeViolations, signIn, pageApi } from './helpers.ts';
 
 /**
  * The researcher's path through one entry: text with maths, a model cell and analysis cells
@@ -15,28 +15,7 @@ let browser: Awaited<ReturnType<typeof launchBrowser>>;
 let page: Page;
 let entryUrl = '';
 
-async function api<T>(p: Page, method: string, url: string, body?: unknown): Promise<T> {
-  return p.evaluate(
-    async ({ method, url, body }) => {
-      const headers: Record<string, string> = {
-        accept: 'application/json',
-        'content-type': 'application/json',
-      };
-      if (method !== 'GET') {
-        const csrf = (await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string };
-        headers['x-csrf-token'] = csrf.csrfToken;
-      }
-      const res = await fetch(url, {
-        method,
-        headers,
-        body: body === undefined ? undefined : JSON.stringify(body),
-      });
-      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
-      return (await res.json()) as T;
-    },
-    { method, url, body },
-  ) as Promise<T>;
-}
+const api = <T,>(p: Page, method: string, url: string, body?: unknown) => pageApi<T>(p, method, url, body);
 
 const cell = (kind: string) => page.locator(`[data-cell-kind="${kind}"]`).first();
 const statusOf = (c: Locator) => c.getAttribute('data-status');

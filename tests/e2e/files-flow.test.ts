@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS } from '../../seeds/demo-people.ts';
 import { launchBrowser, saveScreenshot } from '../support/browser.ts';
-import { signIn } from './helpers.ts';
+import { signIn, pageApi } from './helpers.ts';
 
 /**
  * Files in the browser: a multipart upload with progress, an uploaded image placed in the text
@@ -24,18 +24,7 @@ const task = { kind: 'continuation', parameter: 'mu', start: { x: 1 }, bounds: {
 /** A 2×2 PNG (PNG specification, W3C 2003): signature, IHDR, IDAT, IEND. */
 const PNG_2x2 = 'iVBORw0KGgoAAAANSUhEUgAAAAIAAAACCAIAAAD91JpzAAAAFklEQVR4nGP8z8DAwMDAxMDAwMDAAAANHQEDasKb6QAAAABJRU5ErkJggg==';
 
-async function api<T>(method: string, url: string, body?: unknown): Promise<T> {
-  return page.evaluate(
-    async ({ method, url, body }) => {
-      const headers: Record<string, string> = { accept: 'application/json', 'content-type': 'application/json' };
-      if (method !== 'GET') headers['x-csrf-token'] = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken;
-      const res = await fetch(url, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) });
-      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
-      return (await res.json()) as T;
-    },
-    { method, url, body },
-  ) as Promise<T>;
-}
+const api = <T,>(method: string, url: string, body?: unknown) => pageApi<T>(page, method, url, body);
 
 /** Uploads bytes from the page the way the attachments panel does: FormData over XMLHttpRequest, with progress. */
 async function uploadInPage(url: string, file: { base64?: string; size?: number; name: string; type: string }) {

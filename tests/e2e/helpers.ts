@@ -83,3 +83,23 @@ export async function inBothThemes(
   }
   await page.emulateMedia({ colorScheme: 'light' });
 }
+
+/**
+ * Calls the API from inside the signed-in page (its session cookie, the CSRF token for writes),
+ * for test set-up steps that the test is not about. Throws with the status and body on failure.
+ */
+export async function pageApi<T>(page: Page, method: string, url: string, body?: unknown): Promise<T> {
+  return page.evaluate(
+    async ({ method, url, body }) => {
+      const headers: Record<string, string> = { accept: 'application/json', 'content-type': 'application/json' };
+      if (method !== 'GET') {
+        const csrf = (await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string };
+        headers['x-csrf-token'] = csrf.csrfToken;
+      }
+      const res = await fetch(url, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) });
+      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
+      return (await res.json()) as T;
+    },
+    { method, url, body },
+  ) as Promise<T>;
+}

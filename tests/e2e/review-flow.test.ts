@@ -3,7 +3,7 @@ import { afterAll, afterEach, beforeAll, describe, expect, inject, it } from 'vi
 import type { Page } from 'playwright-core';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
 import { launchBrowser, saveScreenshot, SCREENSHOTS_DIR } from '../support/browser.ts';
-import { seriousAxeViolations, signIn, signOut } from './helpers.ts';
+import { seriousAxeViolations, signIn, signOut, pageApi } from './helpers.ts';
 
 /**
  * The review flow end to end: the researcher records two revisions in which the fold of
@@ -22,18 +22,7 @@ let entryId = '';
 const title = `Saddle-node of the feed balance ${randomUUID().slice(0, 8)}`;
 const reviewUrl = () => `${baseUrl}/notebooks/${notebookId}/entries/${entryId}/review`;
 
-async function api<T>(method: string, url: string, body?: unknown): Promise<T> {
-  return page.evaluate(
-    async ({ method, url, body }) => {
-      const headers: Record<string, string> = { accept: 'application/json', 'content-type': 'application/json' };
-      if (method !== 'GET') headers['x-csrf-token'] = ((await (await fetch('/api/auth/csrf')).json()) as { csrfToken: string }).csrfToken;
-      const res = await fetch(url, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) });
-      if (!res.ok) throw new Error(`${method} ${url}: ${res.status} ${await res.text()}`);
-      return (await res.json()) as T;
-    },
-    { method, url, body },
-  ) as Promise<T>;
-}
+const api = <T,>(method: string, url: string, body?: unknown) => pageApi<T>(page, method, url, body);
 
 const MODEL_ID = randomUUID();
 const BRANCH_ID = randomUUID();
