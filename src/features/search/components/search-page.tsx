@@ -29,7 +29,6 @@ export function SearchPage(props: { entryHref: (notebookId: string, entryId: str
 
   return (
     <div className="space-y-4">
-      <h1 className="font-serif text-2xl font-bold">Search</h1>
       <form role="search" aria-label="Search entries" onSubmit={submit} className="grid gap-3 sm:grid-cols-4">
         <div className="sm:col-span-4">
           <label className={label} htmlFor={`${id}-q`}>
