@@ -15,10 +15,16 @@ export default function AuditRoute() {
     actorId: search.get('actorId') ?? undefined,
   };
   useDocumentTitle('Audit trail');
-  const what = scope.entryId ? 'this entry' : scope.notebookId ? 'this notebook' : scope.actorId ? 'this person' : 'the whole site';
+  const what = scope.entryId
+    ? 'on this entry'
+    : scope.notebookId
+      ? 'in this notebook'
+      : scope.actorId
+        ? 'by this person'
+        : 'on the whole site (administrators only)';
   return (
     <div>
-      <PageHeader title="Audit trail">Every recorded action on {what}, newest first. The trail is append-only: nothing in it can be changed.</PageHeader>
+      <PageHeader title="Audit trail">Every recorded action {what}, newest first. The trail is append-only: nothing in it can be changed.</PageHeader>
       <AuditLog key={search.toString()} scope={scope} />
     </div>
   );
