@@ -82,6 +82,9 @@ export function plotConfig(p: PlotPalette) {
       titleFont: 'IBM Plex Sans, system-ui, sans-serif',
       titleFontSize: 12,
       titleFontWeight: 500,
+      // About one label per 60 px on a 900 px plot; overlapping labels are dropped, not crowded.
+      tickCount: 10,
+      labelOverlap: true,
     },
     legend: {
       labelColor: p.ink,
