@@ -1,7 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeAnalysisPool } from '@server/analysis/analysis-pool.ts';
 import { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import { updateUser } from '@server/services/users/update-user.ts';
 import { DEMO_NOTEBOOKS, DEMO_PEOPLE } from '../../seeds/demo-people.ts';
+import { SADDLE_BRANCH_CELL_ID, saddleBranchTask, saddleDoc, saddleModel } from './entries-support.ts';
 import { createTestApp, makeNotebook, makeUser, newAgent, signIn, uniqueEmail, type Agent, type TestApp, type TestPerson } from '../support/test-app.ts';
 
 /**
@@ -156,6 +158,286 @@ describe('notebook rules', () => {
     } finally {
       await runner.rollbackTransaction();
       await runner.release();
+    }
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// The research log: every route family added since the foundation.
+// ---------------------------------------------------------------------------------------------
+
+const PNG_1x1 = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
+
+/** What a log case needs besides the entry: each is made by the researcher (the entry's author) or the PI. */
+type Need = 'review' | 'comment' | 'attachment' | 'measurement' | 'figure';
+
+interface LogFixture {
+  notebookId: string;
+  entryId: string;
+  entryTitle: string;
+  /** Revision 1 (the empty start) and the head (revision 2, with the branch cell's result). */
+  firstRevisionId: string;
+  headId: string;
+  commentId?: string;
+  attachmentId?: string;
+  measurementSetId?: string;
+  figureId?: string;
+  /** The caller (null when signed out). */
+  me: TestPerson | null;
+}
+
+interface LogFamily {
+  name: string;
+  /** A fresh entry per case (the call changes it); otherwise the shared one is read. */
+  fresh?: boolean;
+  needs?: Need[];
+  call: (agent: Agent, csrf: string, f: LogFixture) => Promise<{ status: number; body: unknown }>;
+  expected: Record<Role, number>;
+}
+
+const notebookWriter = (ok: number) => ({ anonymous: 401, admin: 404, pi: ok, researcher: ok, reader: 403, outsider: 404 });
+/** Auditing a notebook: its PIs and administrators (who are told about any notebook), others refused. */
+const notebookAudit = (ok: number) => ({ anonymous: 401, admin: ok, pi: ok, researcher: 403, reader: 403, outsider: 404 });
+
+const entryUrl = (f: LogFixture) => `/api/notebooks/${f.notebookId}/entries/${f.entryId}`;
+const content = (f: LogFixture, title: string) => ({ baseRevisionId: f.headId, title, entryDate: '2026-11-30', tags: ['matrix'], document: saddleDoc(), outputs: {} });
+
+const LOG_FAMILIES: LogFamily[] = [
+  // Entries, drafts, revisions, restore, cell runs
+  { name: 'list entries', call: (a, _c, f) => a.get(`/api/notebooks/${f.notebookId}/entries`), expected: notebookMember(200) },
+  {
+    name: 'create an entry',
+    call: (a, c, f) => a.post(`/api/notebooks/${f.notebookId}/entries`).set('x-csrf-token', c).send({ title: 'Matrix entry', entryDate: '2026-11-30' }),
+    expected: notebookWriter(201),
+  },
+  { name: 'read an entry', call: (a, _c, f) => a.get(entryUrl(f)), expected: notebookMember(200) },
+  { name: 'save a draft', fresh: true, call: (a, c, f) => a.put(`${entryUrl(f)}/draft`).set('x-csrf-token', c).send(content(f, 'Draft')), expected: notebookWriter(200) },
+  { name: 'discard a draft', fresh: true, call: (a, c, f) => a.delete(`${entryUrl(f)}/draft`).set('x-csrf-token', c), expected: notebookWriter(204) },
+  {
+    name: 'record a revision',
+    fresh: true,
+    call: (a, c, f) => a.post(`${entryUrl(f)}/revisions`).set('x-csrf-token', c).send(content(f, 'Recorded')),
+    expected: notebookWriter(201),
+  },
+  { name: 'list revisions', call: (a, _c, f) => a.get(`${entryUrl(f)}/revisions`), expected: notebookMember(200) },
+  { name: 'read a revision', call: (a, _c, f) => a.get(`${entryUrl(f)}/revisions/${f.firstRevisionId}`), expected: notebookMember(200) },
+  {
+    name: 'restore a revision',
+    fresh: true,
+    call: (a, c, f) => a.post(`${entryUrl(f)}/revisions/${f.firstRevisionId}/restore`).set('x-csrf-token', c).send({ baseRevisionId: f.headId }),
+    expected: notebookWriter(201),
+  },
+  {
+    name: 'run a cell',
+    call: (a, c, f) => a.post(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`).set('x-csrf-token', c).send({ model: saddleModel, task: saddleBranchTask }),
+    expected: notebookWriter(200),
+  },
+  { name: 'read a run’s progress', call: (a, _c, f) => a.get(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`), expected: notebookMember(200) },
+  // Allowed callers are told there is no run to cancel (404); the others never get that far.
+  { name: 'cancel a run (none in progress)', call: (a, c, f) => a.delete(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`).set('x-csrf-token', c), expected: notebookWriter(404) },
+  {
+    name: 'validate a model',
+    call: (a, c) => a.post('/api/engine/validate-model').set('x-csrf-token', c).send({ model: saddleModel }),
+    expected: anyoneSignedIn(200),
+  },
+  // Reviews (the entry is the researcher's: the PI may decide, nobody decides on their own work)
+  { name: 'submit for review', fresh: true, call: (a, c, f) => a.post(`${entryUrl(f)}/review`).set('x-csrf-token', c).send({ revisionId: f.headId, note: 'Please look' }), expected: notebookWriter(201) },
+  { name: 'read a review', needs: ['review'], call: (a, _c, f) => a.get(`${entryUrl(f)}/review`), expected: notebookMember(200) },
+  {
+    name: 'mark a revision seen',
+    fresh: true,
+    needs: ['review'],
+    call: (a, c, f) => a.post(`${entryUrl(f)}/review/mark-seen`).set('x-csrf-token', c).send({ revisionId: f.headId }),
+    expected: { ...notebookPi(200) },
+  },
+  {
+    name: 'request changes',
+    fresh: true,
+    needs: ['review'],
+    call: (a, c, f) => a.post(`${entryUrl(f)}/review/request-changes`).set('x-csrf-token', c).send({ revisionId: f.headId, comment: 'Extend the branch' }),
+    expected: notebookPi(200),
+  },
+  {
+    name: 'approve (sign) with the caller’s own password',
+    fresh: true,
+    needs: ['review'],
+    call: (a, c, f) => a.post(`${entryUrl(f)}/review/approve`).set('x-csrf-token', c).send({ revisionId: f.headId, password: f.me?.password ?? 'none' }),
+    expected: notebookPi(200),
+  },
+  { name: 'check reproducibility', needs: ['review'], call: (a, _c, f) => a.get(`${entryUrl(f)}/review/reproducibility`), expected: notebookPi(200) },
+  { name: 'read the review queue', call: (a) => a.get('/api/reviews/queue'), expected: anyoneSignedIn(200) },
+  // Comments (the thread is the PI's: the entry's author and PIs may resolve it, a reader may not)
+  { name: 'list comments', needs: ['comment'], call: (a, _c, f) => a.get(`${entryUrl(f)}/comments`), expected: notebookMember(200) },
+  {
+    name: 'comment',
+    call: (a, c, f) => a.post(`${entryUrl(f)}/comments`).set('x-csrf-token', c).send({ anchor: { revisionId: f.headId }, body: 'A matrix comment' }),
+    expected: notebookMember(201),
+  },
+  {
+    name: 'resolve another person’s thread',
+    fresh: true,
+    needs: ['comment'],
+    call: (a, c, f) => a.post(`${entryUrl(f)}/comments/${f.commentId}/resolve`).set('x-csrf-token', c),
+    expected: { anonymous: 401, admin: 404, pi: 200, researcher: 200, reader: 403, outsider: 404 },
+  },
+  // Audit views
+  { name: 'audit of a notebook', call: (a, _c, f) => a.get(`/api/audit?notebookId=${f.notebookId}`), expected: notebookAudit(200) },
+  { name: 'audit of an entry', call: (a, _c, f) => a.get(`/api/audit?entryId=${f.entryId}`), expected: notebookAudit(200) },
+  { name: 'audit of a notebook as CSV', call: (a, _c, f) => a.get(`/api/audit?notebookId=${f.notebookId}&format=csv`), expected: notebookAudit(200) },
+  { name: 'the whole audit trail', call: (a) => a.get('/api/audit'), expected: siteAdmin(200) },
+  { name: 'one’s own audit trail', call: (a, _c, f) => a.get(`/api/audit?actorId=${f.me?.user.id ?? people.pi.user.id}`), expected: anyoneSignedIn(200) },
+  { name: 'another person’s audit trail', call: (a) => a.get(`/api/audit?actorId=${target.user.id}`), expected: siteAdmin(200) },
+  { name: 'verify the audit chain', call: (a) => a.get('/api/audit/verify'), expected: siteAdmin(200) },
+  // Attachments
+  {
+    name: 'upload an attachment',
+    call: (a, c, f) => a.post(`${entryUrl(f)}/attachments`).set('x-csrf-token', c).attach('file', PNG_1x1, { filename: 'matrix.png', contentType: 'image/png' }),
+    expected: notebookWriter(201),
+  },
+  { name: 'list attachments', needs: ['attachment'], call: (a, _c, f) => a.get(`${entryUrl(f)}/attachments`), expected: notebookMember(200) },
+  { name: 'read an attachment', needs: ['attachment'], call: (a, _c, f) => a.get(`${entryUrl(f)}/attachments/${f.attachmentId}`), expected: notebookMember(200) },
+  { name: 'download an attachment', needs: ['attachment'], call: (a, _c, f) => a.get(`${entryUrl(f)}/attachments/${f.attachmentId}/content`), expected: notebookMember(302) },
+  {
+    name: 'remove an attachment',
+    fresh: true,
+    needs: ['attachment'],
+    call: (a, c, f) => a.delete(`${entryUrl(f)}/attachments/${f.attachmentId}`).set('x-csrf-token', c),
+    expected: notebookWriter(204),
+  },
+  // Figures
+  {
+    name: 'attach a figure',
+    call: (a, c, f) => a.post(`${entryUrl(f)}/figures`).set('x-csrf-token', c).send({ revisionId: f.headId, cellId: SADDLE_BRANCH_CELL_ID, caption: 'Matrix' }),
+    expected: notebookWriter(201),
+  },
+  { name: 'list figures', needs: ['figure'], call: (a, _c, f) => a.get(`${entryUrl(f)}/figures`), expected: notebookMember(200) },
+  { name: 'read a figure', needs: ['figure'], call: (a, _c, f) => a.get(`${entryUrl(f)}/figures/${f.figureId}`), expected: notebookMember(200) },
+  { name: 'download a figure', needs: ['figure'], call: (a, _c, f) => a.get(`${entryUrl(f)}/figures/${f.figureId}/svg`), expected: notebookMember(302) },
+  // Measurements
+  {
+    name: 'import measurements',
+    call: (a, c, f) => a.post(`${entryUrl(f)}/measurements`).set('x-csrf-token', c).send({ name: 'Matrix data', csv: 'mu,x\n0.25,0.5\n1,1\n' }),
+    expected: notebookWriter(201),
+  },
+  { name: 'list measurements', needs: ['measurement'], call: (a, _c, f) => a.get(`${entryUrl(f)}/measurements`), expected: notebookMember(200) },
+  { name: 'read a measurement set', needs: ['measurement'], call: (a, _c, f) => a.get(`${entryUrl(f)}/measurements/${f.measurementSetId}`), expected: notebookMember(200) },
+  // Exports
+  { name: 'export cell data', call: (a, _c, f) => a.get(`${entryUrl(f)}/export/cells/${SADDLE_BRANCH_CELL_ID}?format=csv`), expected: notebookMember(200) },
+  { name: 'export the printable record', call: (a, _c, f) => a.get(`${entryUrl(f)}/export/record`), expected: notebookMember(200) },
+  { name: 'export the archive', call: (a, _c, f) => a.get(`${entryUrl(f)}/export/archive`).responseType('blob'), expected: notebookMember(200) },
+  // Search
+  { name: 'search', call: (a) => a.get('/api/search?q=saddle'), expected: anyoneSignedIn(200) },
+];
+
+let logNotebookId: string;
+let branchOutput: unknown;
+let shared: LogFixture;
+
+/** A researcher's entry in the log notebook with the branch cell's result as revision 2, plus what `needs` asks. */
+async function makeLogFixture(needs: Need[]): Promise<LogFixture> {
+  const researcher = agents.researcher;
+  const pi = agents.pi;
+  const title = `Matrix entry ${uniqueEmail('e')}`;
+  const created = await researcher.agent.post(`/api/notebooks/${logNotebookId}/entries`).set('x-csrf-token', researcher.csrf).send({ title, entryDate: '2026-11-30' });
+  expect(created.status).toBe(201);
+  const entryId = created.body.entry.id as string;
+  const firstRevisionId = created.body.head.id as string;
+  const base = `/api/notebooks/${logNotebookId}/entries/${entryId}`;
+  const saved = await researcher.agent
+    .post(`${base}/revisions`)
+    .set('x-csrf-token', researcher.csrf)
+    .send({ baseRevisionId: firstRevisionId, title, entryDate: '2026-11-30', tags: [], document: saddleDoc(), outputs: { [SADDLE_BRANCH_CELL_ID]: branchOutput } });
+  expect(saved.status, JSON.stringify(saved.body)).toBe(201);
+  const f: LogFixture = { notebookId: logNotebookId, entryId, entryTitle: title, firstRevisionId, headId: saved.body.id as string, me: null };
+  const ok = (res: { status: number; body: unknown }, status: number) => {
+    expect(res.status, JSON.stringify(res.body)).toBe(status);
+    return res.body as { id: string };
+  };
+  if (needs.includes('review')) ok(await researcher.agent.post(`${base}/review`).set('x-csrf-token', researcher.csrf).send({ revisionId: f.headId }), 201);
+  if (needs.includes('comment')) f.commentId = ok(await pi.agent.post(`${base}/comments`).set('x-csrf-token', pi.csrf).send({ anchor: { revisionId: f.headId }, body: 'PI thread' }), 201).id;
+  if (needs.includes('attachment')) {
+    const up = await researcher.agent.post(`${base}/attachments`).set('x-csrf-token', researcher.csrf).attach('file', PNG_1x1, { filename: 'fixture.png', contentType: 'image/png' });
+    f.attachmentId = ok(up, 201).id;
+  }
+  if (needs.includes('measurement')) {
+    f.measurementSetId = ok(await researcher.agent.post(`${base}/measurements`).set('x-csrf-token', researcher.csrf).send({ name: 'Fixture data', csv: 'mu,x\n0.25,0.5\n' }), 201).id;
+  }
+  if (needs.includes('figure')) {
+    f.figureId = ok(await researcher.agent.post(`${base}/figures`).set('x-csrf-token', researcher.csrf).send({ revisionId: f.headId, cellId: SADDLE_BRANCH_CELL_ID }), 201).id;
+  }
+  return f;
+}
+
+const LOG_CASES = LOG_FAMILIES.flatMap((family) => ROLES.map((role) => ({ family: family.name, role, status: family.expected[role], run: family })));
+
+describe('ASVS V4 access control: the research log, role × route', () => {
+  beforeAll(async () => {
+    logNotebookId = (
+      await makeNotebook(t.dataSource, people.pi.user, [
+        { user: people.researcher.user, role: 'researcher' },
+        { user: people.reader.user, role: 'reader' },
+      ])
+    ).id;
+    // One run of the branch cell gives the result every fixture's head revision holds.
+    const scratch = await agents.researcher.agent
+      .post(`/api/notebooks/${logNotebookId}/entries`)
+      .set('x-csrf-token', agents.researcher.csrf)
+      .send({ title: 'Matrix scratch', entryDate: '2026-11-30' });
+    const run = await agents.researcher.agent
+      .post(`/api/notebooks/${logNotebookId}/entries/${scratch.body.entry.id}/cells/${SADDLE_BRANCH_CELL_ID}/run`)
+      .set('x-csrf-token', agents.researcher.csrf)
+      .send({ model: saddleModel, task: saddleBranchTask });
+    expect(run.status, JSON.stringify(run.body)).toBe(200);
+    const { cached: _cached, ...output } = run.body as Record<string, unknown>;
+    branchOutput = output;
+    shared = await makeLogFixture(['review', 'comment', 'attachment', 'measurement', 'figure']);
+  });
+  afterAll(async () => {
+    await closeAnalysisPool();
+  });
+
+  it.each(LOG_CASES)('$family as $role → $status', async ({ role, status, run }) => {
+    const base = run.fresh ? await makeLogFixture(run.needs ?? []) : shared;
+    const f: LogFixture = { ...base, me: role === 'anonymous' ? null : people[role] };
+    const { agent, csrf } = agents[role];
+    const res = await run.call(agent, csrf, f);
+    // The archive is read as bytes; its errors are JSON.
+    const body: unknown = Buffer.isBuffer(res.body) ? (res.status >= 400 ? JSON.parse(res.body.toString('utf8')) : null) : res.body;
+    expect(res.status, JSON.stringify(body)).toBe(status);
+    if (status === 404 && (role === 'admin' || role === 'outsider')) {
+      // A non-member learns nothing about the notebook or the entry.
+      expect(JSON.stringify(body)).not.toContain(f.entryTitle);
+      expect(body).toMatchObject({ error: { code: 'not_found' } });
+    }
+    if (status >= 400) expect(body).toHaveProperty('error.code');
+  });
+
+  it('search finds the log entry for members only', async () => {
+    const q = encodeURIComponent(shared.entryTitle);
+    for (const role of ROLES.filter((r) => r !== 'anonymous')) {
+      const res = await agents[role].agent.get(`/api/search?q=${q}`);
+      expect(res.status).toBe(200);
+      const ids = (res.body.results as { entryId?: string; entry?: { id: string } }[]).map((r) => r.entryId ?? r.entry?.id);
+      expect(ids.includes(shared.entryId), role).toBe(['pi', 'researcher', 'reader'].includes(role));
+    }
+  });
+
+  it('an entry reached through another notebook’s address is not found (404), even by a member of that notebook', async () => {
+    const own = await makeNotebook(t.dataSource, people.outsider.user);
+    const { agent, csrf } = agents.outsider;
+    const wrong = `/api/notebooks/${own.id}/entries/${shared.entryId}`;
+    for (const res of [
+      await agent.get(wrong),
+      await agent.get(`${wrong}/revisions/${shared.firstRevisionId}`),
+      await agent.get(`${wrong}/attachments/${shared.attachmentId}/content`),
+      await agent.get(`${wrong}/figures/${shared.figureId}`),
+      await agent.get(`${wrong}/measurements/${shared.measurementSetId}`),
+      await agent.get(`${wrong}/export/record`),
+      await agent.post(`${wrong}/comments`).set('x-csrf-token', csrf).send({ anchor: { revisionId: shared.headId }, body: 'Sneaking in' }),
+      await agent.get(`/api/audit?notebookId=${own.id}&entryId=${shared.entryId}`),
+    ]) {
+      expect(res.status, JSON.stringify(res.body)).toBe(404);
+      expect(JSON.stringify(res.body)).not.toContain(shared.entryTitle);
     }
   });
 });
