@@ -51,6 +51,7 @@ export function createAppRouter() {
             { path: paths.reviewQueue.path, lazy: lazy(() => import('./routes/review-queue.tsx')) },
             { path: paths.audit.path, lazy: lazy(() => import('./routes/audit.tsx')) },
             { path: paths.search.path, lazy: lazy(() => import('./routes/search.tsx')) },
+            { path: paths.methods.path, lazy: lazy(() => import('./routes/methods.tsx')) },
             { path: paths.account.path, lazy: lazy(() => import('./routes/account.tsx')) },
             { path: paths.adminUsers.path, lazy: lazy(() => import('./routes/admin/users.tsx')) },
             { path: paths.adminInvites.path, lazy: lazy(() => import('./routes/admin/invites.tsx')) },

@@ -31,6 +31,7 @@ export const paths = {
   },
   reviewQueue: { path: '/reviews', getHref: () => '/reviews' },
   search: { path: '/search', getHref: () => '/search' },
+  methods: { path: '/methods', getHref: (section?: string) => `/methods${section ? `#${section}` : ''}` },
   audit: {
     path: '/audit',
     getHref: (filter: { notebookId?: string; entryId?: string; actorId?: string } = {}) => {

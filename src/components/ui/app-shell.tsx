@@ -158,6 +158,9 @@ export function AppShell({
           <NavLink to={paths.audit.getHref({ actorId: user.id })} className={navClass}>
             My activity
           </NavLink>
+          <NavLink to={paths.methods.getHref()} className={navClass}>
+            Methods
+          </NavLink>
           {admin && (
             <>
               <NavLink to={paths.adminUsers.getHref()} className={navClass}>
@@ -183,7 +186,14 @@ export function AppShell({
       >
         {children}
       </main>
-      <CautionFooter />
+      <CautionFooter>
+        <nav aria-label="Footer" className="mt-2">
+          <p>
+            <Link to={paths.methods.getHref()}>Methods</Link>: what each cell computes, its conventions
+            and sources.
+          </p>
+        </nav>
+      </CautionFooter>
     </div>
   );
 }
