@@ -82,6 +82,7 @@ const comparePage: Screen = {
     await page.goto(`${entryUrl}/compare`);
     await mainHeading(page, ENTRY);
     await page.getByTestId('revision-comparison').waitFor();
+    await loadPlots(page);
   },
 };
 
@@ -100,6 +101,7 @@ const reviewPage: Screen = {
     await page.getByRole('link', { name: PENDING }).first().click();
     await mainHeading(page, PENDING);
     await page.getByTestId('revision-comparison').waitFor();
+    expect(await loadPlots(page)).toBeGreaterThan(0);
   },
 };
 
