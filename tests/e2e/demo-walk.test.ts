@@ -137,6 +137,11 @@ const methodsPage: Screen = {
     await mainHeading(page, 'Methods');
     await page.getByRole('note', { name: 'Caution' }).waitFor();
     expect(await page.locator('.katex').count()).toBeGreaterThan(20);
+    // The contents list jumps to its sections; the footer links here too.
+    await page.getByRole('navigation', { name: 'Contents' }).getByRole('link', { name: 'Caution' }).click();
+    expect(new URL(page.url()).hash).toBe('#caution');
+    await page.getByRole('contentinfo').getByRole('link', { name: 'Methods' }).waitFor();
+    await page.evaluate(() => window.scrollTo(0, 0));
   },
 };
 

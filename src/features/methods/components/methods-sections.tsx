@@ -66,7 +66,8 @@ export const METHODS_SECTIONS: MethodsSection[] = [
           An <strong>equilibria cell</strong> looks for every solution of <Tex>{r`f(x, p) = 0`}</Tex> with{' '}
           <Tex>{r`x`}</Tex> inside a box you give, one interval per variable (a variable left out is
           searched in <Tex>{r`[-10, 10]`}</Tex>). Newton&rsquo;s method, damped by backtracking, is started
-          from the centre of the box and from a fixed sequence of pseudo-random points, so the same
+          from the centre of the box and from a fixed sequence of pseudo-random points (64 unless the
+          cell asks for more, at most 2,000), so the same
           request always gives the same answer. Solutions that converge inside the box are kept;
           two count as the same equilibrium when
         </p>
@@ -330,7 +331,8 @@ export const METHODS_SECTIONS: MethodsSection[] = [
       <>
         <p>
           A <strong>trajectory cell</strong> integrates <Tex>{r`\dot x = f(x,p)`}</Tex> from initial
-          values. Three methods:
+          values with the explicit method below; the engine&rsquo;s analysis interface offers all three
+          (a cell stored with another method keeps it):
         </p>
         <ul>
           <li>
