@@ -55,11 +55,28 @@ export type NodeType = (typeof NODE_TYPES)[number];
 export const MARK_TYPES = ['bold', 'italic', 'strike', 'underline', 'code', 'link'] as const;
 export type MarkType = (typeof MARK_TYPES)[number];
 
+/**
+ * Whether a link or image address may be kept: http(s) and mailto addresses, and addresses
+ * relative to the app (its attachment and figure URLs are paths under /api). Anything else
+ * (javascript:, data:, file:, another host through "//") is refused. Control characters and
+ * white space at either end are refused too, since browsers drop them ("java\tscript:",
+ * " //other.host").
+ */
+export function isAllowedUrl(u: string): boolean {
+  // eslint-disable-next-line no-control-regex
+  if (/[\u0000-\u001f\u007f]/.test(u) || u.trim() !== u) return false;
+  if (/^https?:\/\/[^/\\]/i.test(u) || /^mailto:[^/\\]/i.test(u)) return true;
+  // Browsers read "\" as "/" in web addresses: "/\host" and "\\host" are another host.
+  if (/^[/\\]{2}/.test(u)) return false;
+  // Relative: no scheme, i.e. no ":" before the first "/", "?" or "#".
+  return !/^[^/?#]*:/.test(u);
+}
+
 const urlSchema = z
   .string()
   .max(DOCUMENT_LIMITS.maxUrlLength)
-  .refine((u) => !/^\s*(javascript|vbscript|data:text)/i.test(u), {
-    message: 'This kind of address is not allowed',
+  .refine(isAllowedUrl, {
+    message: 'This kind of address is not allowed: use an http(s) or mailto address, or a file of this entry',
   });
 
 const latexSchema = z.string().max(DOCUMENT_LIMITS.maxLatexLength, {

@@ -199,8 +199,21 @@ const notebookWriter = (ok: number) => ({ anonymous: 401, admin: 404, pi: ok, re
 /** Auditing a notebook: its PIs and administrators (who are told about any notebook), others refused. */
 const notebookAudit = (ok: number) => ({ anonymous: 401, admin: ok, pi: ok, researcher: 403, reader: 403, outsider: 404 });
 
+/**
+ * The branch task of these tests: results are stored by request, so a task of their own keeps
+ * other test files' first runs uncached.
+ */
+const MATRIX_TASK = { ...saddleBranchTask, bounds: { min: -1, max: 1.75 } };
+function matrixDoc() {
+  const doc = saddleDoc('Matrix fixture.');
+  const content = (doc.content ?? []).map((node) =>
+    node.type === 'cell' && node.attrs?.id === SADDLE_BRANCH_CELL_ID ? { ...node, attrs: { ...node.attrs, input: { ...(node.attrs.input as object), task: MATRIX_TASK } } } : node,
+  );
+  return { ...doc, content };
+}
+
 const entryUrl = (f: LogFixture) => `/api/notebooks/${f.notebookId}/entries/${f.entryId}`;
-const content = (f: LogFixture, title: string) => ({ baseRevisionId: f.headId, title, entryDate: '2026-11-30', tags: ['matrix'], document: saddleDoc(), outputs: {} });
+const content = (f: LogFixture, title: string) => ({ baseRevisionId: f.headId, title, entryDate: '2026-11-30', tags: ['matrix'], document: matrixDoc(), outputs: {} });
 
 const LOG_FAMILIES: LogFamily[] = [
   // Entries, drafts, revisions, restore, cell runs
@@ -229,7 +242,7 @@ const LOG_FAMILIES: LogFamily[] = [
   },
   {
     name: 'run a cell',
-    call: (a, c, f) => a.post(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`).set('x-csrf-token', c).send({ model: saddleModel, task: saddleBranchTask }),
+    call: (a, c, f) => a.post(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`).set('x-csrf-token', c).send({ model: saddleModel, task: MATRIX_TASK }),
     expected: notebookWriter(200),
   },
   { name: 'read a run’s progress', call: (a, _c, f) => a.get(`${entryUrl(f)}/cells/${SADDLE_BRANCH_CELL_ID}/run`), expected: notebookMember(200) },
@@ -346,7 +359,7 @@ async function makeLogFixture(needs: Need[]): Promise<LogFixture> {
   const saved = await researcher.agent
     .post(`${base}/revisions`)
     .set('x-csrf-token', researcher.csrf)
-    .send({ baseRevisionId: firstRevisionId, title, entryDate: '2026-11-30', tags: [], document: saddleDoc(), outputs: { [SADDLE_BRANCH_CELL_ID]: branchOutput } });
+    .send({ baseRevisionId: firstRevisionId, title, entryDate: '2026-11-30', tags: [], document: matrixDoc(), outputs: { [SADDLE_BRANCH_CELL_ID]: branchOutput } });
   expect(saved.status, JSON.stringify(saved.body)).toBe(201);
   const f: LogFixture = { notebookId: logNotebookId, entryId, entryTitle: title, firstRevisionId, headId: saved.body.id as string, me: null };
   const ok = (res: { status: number; body: unknown }, status: number) => {
@@ -386,7 +399,7 @@ describe('ASVS V4 access control: the research log, role × route', () => {
     const run = await agents.researcher.agent
       .post(`/api/notebooks/${logNotebookId}/entries/${scratch.body.entry.id}/cells/${SADDLE_BRANCH_CELL_ID}/run`)
       .set('x-csrf-token', agents.researcher.csrf)
-      .send({ model: saddleModel, task: saddleBranchTask });
+      .send({ model: saddleModel, task: MATRIX_TASK });
     expect(run.status, JSON.stringify(run.body)).toBe(200);
     const { cached: _cached, ...output } = run.body as Record<string, unknown>;
     branchOutput = output;

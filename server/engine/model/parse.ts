@@ -127,12 +127,12 @@ function convertExpression(text: string, names: Map<string, Node>, laterDefiniti
       case 'SymbolNode': {
         const name = asSymbol(node).name;
         const position = nextPosition(name, 'word');
-        if (name in ALLOWED_CONSTANTS) return num(ALLOWED_CONSTANTS[name]);
+        if (Object.hasOwn(ALLOWED_CONSTANTS, name)) return num(ALLOWED_CONSTANTS[name]);
         const target = names.get(name);
         if (target) return target;
         if (laterDefinitions.has(name))
           throw new FieldProblem(ENGINE_ERROR_CODES.unknownName, `"${name}" is defined later: a definition may only use earlier definitions`, position);
-        if (name in ALLOWED_FUNCTIONS)
+        if (Object.hasOwn(ALLOWED_FUNCTIONS, name))
           throw new FieldProblem(ENGINE_ERROR_CODES.unknownName, `"${name}" is a function: call it with parentheses, e.g. ${name}(x)`, position);
         throw new FieldProblem(ENGINE_ERROR_CODES.unknownName, `Unknown name "${name}": not a variable, parameter, definition or constant (pi, e)`, position);
       }
@@ -148,7 +148,7 @@ function convertExpression(text: string, names: Map<string, Node>, laterDefiniti
         const f = asFunction(node);
         const name = f.fn.type === 'SymbolNode' ? asSymbol(f.fn).name : '';
         const position = name ? nextPosition(name, 'word') : charPosition('(');
-        if (!(name in ALLOWED_FUNCTIONS)) {
+        if (!Object.hasOwn(ALLOWED_FUNCTIONS, name)) {
           const list = Object.keys(ALLOWED_FUNCTIONS).join(', ');
           const message = name ? `Unknown function "${name}": allowed are ${list}` : `Only named functions may be called: ${list}`;
           throw new FieldProblem(ENGINE_ERROR_CODES.unknownFunction, message, position);
