@@ -145,6 +145,22 @@ const methodsPage: Screen = {
   },
 };
 
+/** The Methods page again in the dark theme (its caution box and maths must keep their contrast). */
+const methodsDark: Screen = {
+  name: 'methods-dark',
+  visit: async (page) => {
+    await page.emulateMedia({ colorScheme: 'dark', reducedMotion: 'reduce' });
+    await page.goto(`${baseUrl}/methods`);
+    await mainHeading(page, 'Methods');
+    // (waitForFunction would need eval, which the app's CSP forbids)
+    for (let i = 0; (await page.evaluate(() => document.documentElement.dataset.theme)) !== 'dark'; i++) {
+      if (i > 50) throw new Error('The Methods page did not switch to the dark theme');
+      await page.waitForTimeout(50);
+    }
+    await page.getByRole('note', { name: 'Caution' }).waitFor();
+  },
+};
+
 const accountPage: Screen = {
   name: 'account',
   visit: async (page) => {
@@ -176,7 +192,7 @@ const member = (reviews: Screen[]): Screen[] => [
 const WALKS: { role: DemoPersonKey; screens: Screen[] }[] = [
   { role: 'pi', screens: member([reviewQueue, reviewPage]) },
   { role: 'researcher', screens: member([reviewQueue]) },
-  { role: 'reader', screens: member([reviewQueue]) },
+  { role: 'reader', screens: [...member([reviewQueue]), methodsDark] },
   {
     role: 'admin',
     screens: [notebooksList, reviewQueue, auditPage, searchPage(false), methodsPage, accountPage, adminPeople],
