@@ -1,5 +1,6 @@
 import type { CellOutputs } from '@shared/cells/output.ts';
-import { documentToPlainText, type DocumentJson } from '@shared/editor/document.ts';
+import { CELL_KIND_LABELS } from '@shared/cells/kinds.ts';
+import { documentToPlainText, extractCells, type DocumentCell, type DocumentJson } from '@shared/editor/document.ts';
 import { EntryDraftEntity } from '@server/entities/entry-draft.entity.ts';
 import { EntryEntity } from '@server/entities/entry.entity.ts';
 import { RevisionEntity } from '@server/entities/revision.entity.ts';
@@ -31,9 +32,33 @@ export interface RecordRevisionProps {
   outputsVerified?: boolean;
 }
 
-/** The text the search box looks in: title, tags and the document as plain text. */
+/**
+ * The text the search box looks in (and its snippets show): title, tags, the prose of the
+ * document, and each cell in words — its kind, its name, a model's equations and parameter
+ * names, an analysis's varied parameters — never the cell's settings as JSON.
+ */
 export function searchTextOf(props: { title: string; tags: string[]; document: DocumentJson }): string {
-  return [props.title, props.tags.join(' '), documentToPlainText(props.document)].join('\n');
+  const prose: DocumentJson = {
+    ...props.document,
+    content: (props.document.content ?? []).filter((node) => node.type !== 'cell'),
+  };
+  const cells = extractCells(props.document).map(cellInWords);
+  return [props.title, props.tags.join(' '), documentToPlainText(prose), ...cells].join('\n');
+}
+
+function cellInWords(cell: DocumentCell): string {
+  const words: string[] = [CELL_KIND_LABELS[cell.kind]];
+  const input = cell.input;
+  if (typeof input.name === 'string') words.push(input.name);
+  const named = (list: unknown, text: (item: Record<string, unknown>) => string) =>
+    Array.isArray(list) ? list.filter((i): i is Record<string, unknown> => !!i && typeof i === 'object').map(text) : [];
+  words.push(...named(input.variables, (v) => `${String(v.name ?? '')}' = ${String(v.rhs ?? '')}`));
+  words.push(...named(input.definitions, (d) => `${String(d.name ?? '')} = ${String(d.expression ?? '')}`));
+  words.push(...named(input.parameters, (p) => [p.name, p.note].filter((x) => typeof x === 'string' && x).join(' ')));
+  const task = input.task && typeof input.task === 'object' ? (input.task as Record<string, unknown>) : {};
+  if (typeof task.parameter === 'string') words.push(`in ${task.parameter}`);
+  if (Array.isArray(task.parameters)) words.push(`in ${task.parameters.filter((x) => typeof x === 'string').join(' and ')}`);
+  return words.filter(Boolean).join(' · ');
 }
 
 /** A revision with its author, for presenting. */
