@@ -23,7 +23,11 @@ beforeAll(async () => {
   context = browser.context;
   page = await context.newPage();
   await signIn(page, baseUrl, 'pi');
-  for (const link of await page.locator('ul[aria-label="Your notebooks"] a').all()) {
+  // The list loads after the heading: wait until every one of the PI's notebooks is listed.
+  const links = page.locator('ul[aria-label="Your notebooks"] a');
+  const expected = notebookTitlesOf('pi').length;
+  await links.nth(expected - 1).waitFor();
+  for (const link of await links.all()) {
     notebookUrl.set(
       (await link.locator('h3').textContent()) ?? '',
       new URL((await link.getAttribute('href')) ?? '', baseUrl).href,
