@@ -4,6 +4,7 @@ import type { CellOutputs } from '@shared/cells/output.ts';
 import type { ResolvedRequest } from '@shared/cells/resolve.ts';
 import type { DocumentJson } from '@shared/editor/document.ts';
 import type { Model } from '@shared/engine/contract.ts';
+import type { Editor } from '@tiptap/react';
 import {
   CellNodeView,
   CellsContext,
@@ -29,6 +30,8 @@ type EntryDocumentProps = {
   label?: string;
   /** Actions composed under each analysis cell's result (see CellsRuntime.cellExtras). */
   cellExtras?: (cell: { id: string; kind: CellKind }) => ReactNode;
+  /** Receives the editor once it exists (and null when it goes), for commands from outside it. */
+  onEditor?: (editor: Editor | null) => void;
 };
 
 /** A bar above the body: how many cells are stale or running, and one action to rerun the stale ones in order. */
@@ -77,6 +80,7 @@ export function EntryDocument({
   editorKey,
   label,
   cellExtras,
+  onEditor,
 }: EntryDocumentProps) {
   const send = useCallback(
     (cellId: string, request: ResolvedRequest, signal: AbortSignal) =>
@@ -114,6 +118,7 @@ export function EntryDocument({
         cellView={CellNodeView}
         createCellInput={createCellInput}
         label={label}
+        onEditor={onEditor}
       />
     </CellsContext.Provider>
   );

@@ -1,4 +1,5 @@
 import { useQueryClient } from '@tanstack/react-query';
+import type { Editor } from '@tiptap/react';
 import { useCallback, useState, type ReactNode } from 'react';
 import { ENTRY_STATUS_LABELS, type EntryDetail, type EntrySummary, type Revision } from '@shared/api/entries.ts';
 import type { CellKind } from '@shared/cells/kinds.ts';
@@ -36,7 +37,7 @@ export interface EntrySlotContext {
   head: Revision;
   /** True when the working copy has changes not yet recorded as a revision. */
   unrecorded: boolean;
-  /** Places an image at the end of the working document (researchers and PIs only). */
+  /** Places an image in the working document at the cursor (researchers and PIs only). */
   insertImage?: (image: { src: string; alt: string }) => void;
 }
 
@@ -124,19 +125,11 @@ function EntryWorkspace({
   const [reading, setReading] = useState<string | null>(null);
   const [tagsDraft, setTagsDraft] = useState(tagsText(working.tags));
   const restore = useRestoreRevision(notebookId, entryId);
+  const [editor, setEditor] = useState<Editor | null>(null);
+  /** Through the editor's own command: the picture goes where the cursor is, like the toolbar's. */
   const insertImage = useCallback(
-    (image: { src: string; alt: string }) =>
-      wc.replace(
-        {
-          ...working,
-          document: {
-            ...working.document,
-            content: [...(working.document.content ?? []), { type: 'image', attrs: { src: image.src, alt: image.alt } }],
-          },
-        },
-        { dirty: true },
-      ),
-    [wc, working],
+    (image: { src: string; alt: string }) => void editor?.chain().focus().insertImage(image).run(),
+    [editor],
   );
   const slotCtx: EntrySlotContext = {
     entry: detail.entry,
@@ -361,6 +354,7 @@ function EntryWorkspace({
               editable={canWrite}
               editorKey={wc.editorKey}
               cellExtras={slots?.cellExtras ? extrasForCell : undefined}
+              onEditor={setEditor}
             />
             {slots?.afterDocument?.(slotCtx)}
           </>
