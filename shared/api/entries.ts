@@ -181,6 +181,8 @@ export type RevisionList = z.infer<typeof revisionListSchema>;
 
 export const saveDraftSchema = z.object({ baseRevisionId: z.uuid(), ...contentShape });
 export type SaveDraftInput = z.input<typeof saveDraftSchema>;
+/** A working copy of an entry: its base revision and its content (the draft body once parsed). */
+export type DraftContent = z.infer<typeof saveDraftSchema>;
 
 export const draftSchema = z.object({
   baseRevisionId: z.uuid(),

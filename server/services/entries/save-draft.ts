@@ -1,5 +1,4 @@
-import type { CellOutputs } from '@shared/cells/output.ts';
-import type { DocumentJson } from '@shared/editor/document.ts';
+import type { DraftContent } from '@shared/api/entries.ts';
 import { EntryDraftEntity } from '@server/entities/entry-draft.entity.ts';
 import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { RevisionEntity } from '@server/entities/revision.entity.ts';
@@ -7,14 +6,8 @@ import { ValidationError } from '@server/errors/index.ts';
 import { pruneOutputs } from '@server/services/revisions/prune-outputs.ts';
 import type { ActingContext } from './service-context.ts';
 
-export interface SaveDraftProps {
+export interface SaveDraftProps extends DraftContent {
   entry: EntryEntity;
-  baseRevisionId: string;
-  title: string;
-  entryDate: string;
-  tags: string[];
-  document: DocumentJson;
-  outputs: CellOutputs;
 }
 
 /**

@@ -1,19 +1,13 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import type { Draft, EntryDetail, Revision } from '@shared/api/entries.ts';
+import type { Draft, DraftContent, EntryDetail, Revision } from '@shared/api/entries.ts';
 import { canonicalJson } from '@shared/cells/hash.ts';
 import type { CellOutputs } from '@shared/cells/output.ts';
 import { extractCells, type DocumentJson } from '@shared/editor/document.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { saveDraft } from '../api/save-draft.ts';
 
-export interface WorkingCopy {
-  baseRevisionId: string;
-  title: string;
-  entryDate: string;
-  tags: string[];
-  document: DocumentJson;
-  outputs: CellOutputs;
-}
+/** The author's working copy: the same shape as the autosaved draft the server keeps. */
+export type WorkingCopy = DraftContent;
 
 export type DraftState =
   | { kind: 'clean' }
