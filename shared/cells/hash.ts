@@ -4,34 +4,46 @@
  * as data give the same string, whatever the order their keys were written in. Pure: hashing
  * is done by the caller (node:crypto on the server, `crypto.subtle.digest` in the browser).
  *
- * Non-finite numbers are refused: JSON has no spelling for them and a silent `null` would make
- * two different requests hash alike.
+ * Non-finite numbers are refused by default: JSON has no spelling for them and a silent `null`
+ * would make two different requests hash alike. `nonFinite: 'null'` writes them as `null`, as
+ * `JSON.stringify` and PostgreSQL's jsonb do: for hashing a value as it will be stored (the audit
+ * trail hashes its summaries that way, so the chain verifies against what the database holds).
  */
-export function canonicalJson(value: unknown): string {
-  if (value === null) return 'null';
-  switch (typeof value) {
-    case 'number':
-      if (!Number.isFinite(value)) throw new TypeError(`canonicalJson: ${value} has no JSON form`);
-      return JSON.stringify(value);
-    case 'string':
-    case 'boolean':
-      return JSON.stringify(value);
-    case 'object': {
-      if (Array.isArray(value)) {
-        return `[${value.map((v) => (v === undefined || typeof v === 'function' ? 'null' : canonicalJson(v))).join(',')}]`;
+export function canonicalJson(value: unknown, options: CanonicalJsonOptions = {}): string {
+  const nonFinite = options.nonFinite ?? 'refuse';
+  const write = (v: unknown): string => {
+    if (v === null) return 'null';
+    switch (typeof v) {
+      case 'number':
+        if (Number.isFinite(v)) return JSON.stringify(v);
+        if (nonFinite === 'null') return 'null';
+        throw new TypeError(`canonicalJson: ${v} has no JSON form`);
+      case 'string':
+      case 'boolean':
+        return JSON.stringify(v);
+      case 'object': {
+        if (Array.isArray(v)) {
+          return `[${v.map((x) => (x === undefined || typeof x === 'function' ? 'null' : write(x))).join(',')}]`;
+        }
+        const obj = v as Record<string, unknown>;
+        if (typeof (obj as { toJSON?: unknown }).toJSON === 'function') {
+          return write((obj as { toJSON: () => unknown }).toJSON());
+        }
+        const keys = Object.keys(obj)
+          .filter((k) => obj[k] !== undefined && typeof obj[k] !== 'function')
+          .sort();
+        return `{${keys.map((k) => `${JSON.stringify(k)}:${write(obj[k])}`).join(',')}}`;
       }
-      const obj = value as Record<string, unknown>;
-      if (typeof (obj as { toJSON?: unknown }).toJSON === 'function') {
-        return canonicalJson((obj as { toJSON: () => unknown }).toJSON());
-      }
-      const keys = Object.keys(obj)
-        .filter((k) => obj[k] !== undefined && typeof obj[k] !== 'function')
-        .sort();
-      return `{${keys.map((k) => `${JSON.stringify(k)}:${canonicalJson(obj[k])}`).join(',')}}`;
+      default:
+        throw new TypeError(`canonicalJson: a ${typeof v} has no JSON form`);
     }
-    default:
-      throw new TypeError(`canonicalJson: a ${typeof value} has no JSON form`);
-  }
+  };
+  return write(value);
+}
+
+export interface CanonicalJsonOptions {
+  /** What to do with NaN and ±Infinity: throw (default) or write `null`. */
+  nonFinite?: 'refuse' | 'null';
 }
 
 /** What the input hash covers: the engine version and the resolved request. */

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { canonicalJson } from '../cells/hash.ts';
 import { CELL_KINDS, CELL_KIND_LABELS, type CellKind } from '../cells/kinds.ts';
 
 /**
@@ -298,18 +299,7 @@ export function extractCells(doc: DocumentJson): DocumentCell[] {
 export function describeCell(cell: DocumentCell): string {
   const label = CELL_KIND_LABELS[cell.kind];
   const name = typeof cell.input.name === 'string' && cell.input.name ? ` "${cell.input.name}"` : '';
-  return `[${label}${name}] ${stableStringify(cell.input)}`;
-}
-
-function stableStringify(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(stableStringify).join(',')}]`;
-  if (value && typeof value === 'object') {
-    const entries = Object.keys(value as object)
-      .sort()
-      .map((k) => `${JSON.stringify(k)}:${stableStringify((value as Record<string, unknown>)[k])}`);
-    return `{${entries.join(',')}}`;
-  }
-  return JSON.stringify(value) ?? 'null';
+  return `[${label}${name}] ${canonicalJson(cell.input, { nonFinite: 'null' })}`;
 }
 
 /**

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEventEntity } from '@server/entities/audit-event.entity.ts';
-import { GENESIS_HASH, canonicalJson, chainHash } from '@server/services/audit/canonical-json.ts';
+import { GENESIS_HASH, auditJson, chainHash } from '@server/services/audit/canonical-json.ts';
 import { recordEvent } from '@server/services/audit/record-event.ts';
 import { verifyAuditChain } from '@server/services/audit/verify-audit-chain.ts';
 import { createTestApp, makeUser, signIn, type TestApp } from '../support/test-app.ts';
@@ -15,7 +15,13 @@ afterAll(async () => {
 
 describe('canonical content', () => {
   it('is the same text whatever the key order', () => {
-    expect(canonicalJson({ b: 1, a: { d: [1, { f: 2, e: 3 }], c: null } })).toBe('{"a":{"c":null,"d":[1,{"e":3,"f":2}]},"b":1}');
+    expect(auditJson({ b: 1, a: { d: [1, { f: 2, e: 3 }], c: null } })).toBe('{"a":{"c":null,"d":[1,{"e":3,"f":2}]},"b":1}');
+  });
+
+  it('writes NaN and infinities as null, as jsonb stores them, so a diagnostic value never fails a write', () => {
+    const summary = { ratio: Number.NaN, bound: Number.POSITIVE_INFINITY, list: [Number.NEGATIVE_INFINITY] };
+    expect(auditJson(summary)).toBe(auditJson(JSON.parse(JSON.stringify(summary))));
+    expect(auditJson(summary)).toBe('{"bound":null,"list":[null],"ratio":null}');
   });
 
   it('hashes with SHA-256 over the previous hash and the content', () => {

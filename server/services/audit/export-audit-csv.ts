@@ -3,7 +3,7 @@ import type { EntityManager } from 'typeorm';
 import { AUDIT_CSV_COLUMNS } from '@shared/api/audit.ts';
 import type { UserEntity } from '@server/entities/user.entity.ts';
 import type { AuditEventWithActor } from '@server/presenters/audit-event.presenter.ts';
-import { canonicalJson } from './canonical-json.ts';
+import { auditJson } from './canonical-json.ts';
 import { auditQueryBuilder, fetchWithActor, type AuditFilter } from './list-audit-events.ts';
 import { recordEvent } from './record-event.ts';
 
@@ -15,7 +15,7 @@ export function csvField(value: string | null): string {
 }
 
 export function csvRow(e: AuditEventWithActor): string {
-  const values = [e.seq, e.occurredAt.toISOString(), e.actorId, e.actorName, e.action, e.entityType, e.entityId, e.notebookId, canonicalJson(e.summary), e.hash];
+  const values = [e.seq, e.occurredAt.toISOString(), e.actorId, e.actorName, e.action, e.entityType, e.entityId, e.notebookId, auditJson(e.summary), e.hash];
   return `${values.map(csvField).join(',')}\r\n`;
 }
 

@@ -58,6 +58,10 @@ describe('canonicalJson', () => {
   it('refuses numbers JSON cannot spell', () => {
     expect(() => canonicalJson({ x: Number.NaN })).toThrow(/no JSON form/);
   });
+  it('writes them as null when asked, as JSON.stringify does', () => {
+    expect(canonicalJson({ x: Number.NaN, y: [Number.POSITIVE_INFINITY] }, { nonFinite: 'null' })).toBe('{"x":null,"y":[null]}');
+    expect(canonicalJson({ when: new Date('2026-01-02T03:04:05.000Z') })).toBe('{"when":"2026-01-02T03:04:05.000Z"}');
+  });
   it('hashes like node:crypto sha256 of the same text (the server side)', async () => {
     const request = { model: { variables: [] }, task: { kind: 'equilibria' } };
     const expected = createHash('sha256').update(hashPayload('1.0.0', request)).digest('hex');
