@@ -29,6 +29,10 @@ export interface TestApp {
   env: Env;
   sink: SmtpSink;
   mailer: Mailer;
+  /** Stops the S3 fake (its objects stay on disk), as when file storage goes down. */
+  stopStorage(): Promise<void>;
+  /** Starts the S3 fake again on the same port with the same objects. */
+  startStorage(): Promise<void>;
   /** The next message to `to` that arrives after `since` (ms since epoch). */
   waitForMail(to: string, since?: number, timeoutMs?: number): Promise<ParsedMail>;
   close(): Promise<void>;
@@ -51,7 +55,8 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     ...options.env,
   });
   const sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
-  const s3: FakeS3 = await startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+  const startS3 = () => startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+  let s3: FakeS3 | null = await startS3();
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
   const mailer = options.mailer ?? createSmtpMailer(env);
   const storage = createS3Storage(env);
@@ -81,13 +86,20 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     sink,
     mailer,
     waitForMail,
+    async stopStorage() {
+      await s3?.close();
+      s3 = null;
+    },
+    async startStorage() {
+      s3 ??= await startS3();
+    },
     async close() {
       await bifolio.close();
       mailer.close();
       storage.client.destroy();
       await dataSource.destroy();
       await sink.close();
-      await s3.close();
+      await s3?.close();
       rmSync(tmp, { recursive: true, force: true });
     },
   };
