@@ -107,15 +107,18 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
 
 export type Agent = ReturnType<typeof request.agent>;
 
+/** What supertest can talk to: the app in this process, or the address of a running server. */
+export type AgentTarget = TestApp['app'] | string;
+
 /** A cookie-keeping client with the session's CSRF token. */
-export async function newAgent(app: TestApp['app']): Promise<{ agent: Agent; csrf: string }> {
+export async function newAgent(app: AgentTarget): Promise<{ agent: Agent; csrf: string }> {
   const agent = request.agent(app);
   const res = await agent.get('/api/auth/csrf').expect(200);
   return { agent, csrf: res.body.csrfToken as string };
 }
 
 /** Signs in (fetching the CSRF token first) and returns the agent and token for later writes. */
-export async function signIn(app: TestApp['app'], person: { email: string; password: string }): Promise<{ agent: Agent; csrf: string }> {
+export async function signIn(app: AgentTarget, person: { email: string; password: string }): Promise<{ agent: Agent; csrf: string }> {
   const { agent, csrf } = await newAgent(app);
   const res = await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email: person.email, password: person.password });
   if (res.status !== 200) throw new Error(`sign-in as ${person.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
