@@ -26,8 +26,8 @@ const NETWORK_CODES = new Set([
  */
 const SERVER_GONE_STATES = new Set(['57P01', '57P02', '57P03', '08000', '08001', '08003', '08004', '08006']);
 
-/** What node-postgres says when the socket closes under a client (it sets no code then). */
-const CUT_CONNECTION = /^Connection terminated|connection timeout|Client has encountered a connection error/i;
+/** What node-postgres says when the socket closes under a client or a connection times out (it sets no code then). */
+const CUT_CONNECTION = /^Connection terminated|connection timeout|timeout exceeded when trying to connect|Client has encountered a connection error/i;
 
 type ErrorLike = {
   code?: unknown;

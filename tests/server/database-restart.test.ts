@@ -1,3 +1,4 @@
+import net from 'node:net';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { EntryDetail, Revision } from '@shared/api/entries.ts';
@@ -97,6 +98,25 @@ describe('PostgreSQL restarted while the app runs', () => {
     expect(next.status).toBe(201);
     expect((next.body as Revision).number).toBe(before.number + 1);
     expect(await verifyAuditChain(app.dataSource.manager)).toMatchObject({ ok: true });
+    expect(unhandled).toEqual([]);
+  });
+
+  it('answers 503 instead of hanging when the database accepts connections but never answers', async () => {
+    await cluster.pause();
+    // A silent listener on the database's port: connections open, and nothing ever comes back.
+    const sockets = new Set<net.Socket>();
+    const silent = net.createServer((socket) => sockets.add(socket));
+    await new Promise<void>((resolve) => silent.listen(Number(new URL(cluster.databaseUrl).port), '127.0.0.1', resolve));
+    try {
+      const res = await get('/api/auth/me');
+      expect(res.status).toBe(503);
+      expect(res.body.error.code).toBe('database_unavailable');
+    } finally {
+      for (const socket of sockets) socket.destroy();
+      await new Promise<void>((resolve) => silent.close(() => resolve()));
+      await cluster.resume();
+    }
+    expect((await get('/api/auth/me')).status).toBe(200);
     expect(unhandled).toEqual([]);
   });
 });

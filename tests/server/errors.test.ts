@@ -62,6 +62,7 @@ describe('isDatabaseUnreachable', () => {
     ['a server shutting down (57P01), wrapped by TypeORM', new QueryFailedError('SELECT 1', [], pgError('57P01', 'terminating connection due to administrator command'))],
     ['a server still starting (57P03)', pgError('57P03', 'the database system is starting up')],
     ['a socket cut under a client', new Error('Connection terminated unexpectedly')],
+    ['a connection that timed out (a server that never answers)', new Error('timeout exceeded when trying to connect')],
     ['a refusal inside an AggregateError', new AggregateError([Object.assign(new Error('connect ECONNREFUSED ::1:5432'), { code: 'ECONNREFUSED' })])],
   ])('recognises %s', (_label, error) => {
     expect(isDatabaseUnreachable(error)).toBe(true);
