@@ -27,8 +27,13 @@ export interface TestApp {
   app: BifolioApp['app'];
   dataSource: DataSource;
   env: Env;
-  sink: SmtpSink;
+  /** The SMTP sink now running (or the last one, once stopped). */
+  readonly sink: SmtpSink;
   mailer: Mailer;
+  /** Stops the SMTP sink, as when the mail relay goes down (delivered mail stays in OUTBOX_DIR). */
+  stopMail(): Promise<void>;
+  /** Starts the SMTP sink again on the same port. */
+  startMail(): Promise<void>;
   /** Stops the S3 fake (its objects stay on disk), as when file storage goes down. */
   stopStorage(): Promise<void>;
   /** Starts the S3 fake again on the same port with the same objects. */
@@ -54,7 +59,8 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     BIFOLIO_DATA_DIR: tmp,
     ...options.env,
   });
-  const sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+  let sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+  let mailRunning = true;
   const startS3 = () => startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
   let s3: FakeS3 | null = await startS3();
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
@@ -83,9 +89,19 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     app: bifolio.app,
     dataSource,
     env,
-    sink,
+    get sink() {
+      return sink;
+    },
     mailer,
     waitForMail,
+    async stopMail() {
+      if (mailRunning) await sink.close();
+      mailRunning = false;
+    },
+    async startMail() {
+      if (!mailRunning) sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+      mailRunning = true;
+    },
     async stopStorage() {
       await s3?.close();
       s3 = null;
@@ -98,7 +114,7 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
       mailer.close();
       storage.client.destroy();
       await dataSource.destroy();
-      await sink.close();
+      if (mailRunning) await sink.close();
       await s3?.close();
       rmSync(tmp, { recursive: true, force: true });
     },
