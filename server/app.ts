@@ -8,6 +8,7 @@ import pg from 'pg';
 import { LIMITS } from '@shared/domain/limits.ts';
 import type { AppDeps, RouteDeps } from './app-deps.ts';
 import { createPassport } from './middlewares/authenticate.ts';
+import { DATABASE_CONNECT_TIMEOUT_MS } from './data-source.ts';
 import { createCsrf } from './middlewares/csrf.ts';
 import { apiNotFound, errorHandler } from './middlewares/error-handler.ts';
 import { DEFAULT_RATE_LIMITS, createRateLimits, type RateLimitSettings } from './middlewares/rate-limits.ts';
@@ -54,7 +55,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): BifolioApp {
     }),
   );
 
-  const sessionPool = new pg.Pool({ connectionString: env.DATABASE_URL, max: 4 });
+  const sessionPool = new pg.Pool({ connectionString: env.DATABASE_URL, max: 4, connectionTimeoutMillis: DATABASE_CONNECT_TIMEOUT_MS });
   sessionPool.on('error', (error) => console.error(`[session-store] ${error.message}`));
   const PgStore = connectPgSimple(session);
   const store = new PgStore({

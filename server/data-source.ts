@@ -3,6 +3,12 @@ import { DataSource } from 'typeorm';
 import { ENTITIES } from './entities/index.ts';
 import { MIGRATIONS } from './migrations/index.ts';
 
+/**
+ * How long a new database connection may take before the request that needs it fails (503
+ * database_unavailable) instead of hanging on a server that accepts but does not answer.
+ */
+export const DATABASE_CONNECT_TIMEOUT_MS = 5000;
+
 /** The app's DataSource for a database URL. Schema changes go through migrations only. */
 export function createDataSource(databaseUrl: string, options: { poolSize?: number } = {}): DataSource {
   return new DataSource({
@@ -15,7 +21,7 @@ export function createDataSource(databaseUrl: string, options: { poolSize?: numb
     migrationsTransactionMode: 'each',
     synchronize: false,
     logging: ['error', 'warn'],
-    extra: { max: options.poolSize ?? 10 },
+    extra: { max: options.poolSize ?? 10, connectionTimeoutMillis: DATABASE_CONNECT_TIMEOUT_MS },
   });
 }
 

@@ -33,6 +33,23 @@ export function findPostgresBinDir(): string | null {
 }
 
 /**
+ * A client tool (pg_dump, pg_restore) of one PostgreSQL major version, from Debian's
+ * /usr/lib/postgresql/<major>/bin (or PG_BIN_DIR): a dump is best taken and restored by the
+ * tools of the server's own version. Stops with a message naming the package when it is missing.
+ */
+export function findPostgresTool(name: 'pg_dump' | 'pg_restore', major: number): string {
+  const dirs = [process.env.PG_BIN_DIR, `/usr/lib/postgresql/${major}/bin`].filter((d): d is string => Boolean(d));
+  for (const dir of dirs) {
+    const tool = path.join(dir, name);
+    if (existsSync(tool)) return tool;
+  }
+  throw new PostgresSetupError(
+    `${name} for PostgreSQL ${major} (the server's version) was not found in /usr/lib/postgresql/${major}/bin.\n` +
+      `Install Debian's "postgresql-client-${major}" package (sudo apt-get install -y postgresql-client-${major}) and run the command again.`,
+  );
+}
+
+/**
  * Finds the server binaries; when they are missing installs Debian's package as root,
  * otherwise stops with a message naming the package.
  */

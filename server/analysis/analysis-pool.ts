@@ -118,9 +118,9 @@ export class AnalysisPool {
 
 let shared: AnalysisPool | null = null;
 
-/** The server's one pool, created on first use. */
-export function getAnalysisPool(): AnalysisPool {
-  shared ??= new AnalysisPool();
+/** The server's one pool, created on first use (with `options`, when that first use gives them). */
+export function getAnalysisPool(options?: AnalysisPoolOptions): AnalysisPool {
+  shared ??= new AnalysisPool(options);
   return shared;
 }
 

@@ -1,5 +1,6 @@
 export { ConflictError } from './conflict.error.ts';
 export { CsrfError } from './csrf.error.ts';
+export { DatabaseUnavailableError, isDatabaseUnreachable } from './database-unavailable.error.ts';
 export { ForbiddenError } from './forbidden.error.ts';
 export { HttpError, type FieldProblem } from './http.error.ts';
 export { MalformedJsonError } from './malformed-json.error.ts';

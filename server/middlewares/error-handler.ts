@@ -1,7 +1,16 @@
 import type { NextFunction, Request, Response } from 'express';
 import { ZodError } from 'zod';
 import { ERROR_CODES } from '@shared/api/errors.ts';
-import { HttpError, MalformedJsonError, NotFoundError, PayloadTooLargeError, ValidationError, type FieldProblem } from '@server/errors/index.ts';
+import {
+  DatabaseUnavailableError,
+  HttpError,
+  MalformedJsonError,
+  NotFoundError,
+  PayloadTooLargeError,
+  ValidationError,
+  isDatabaseUnreachable,
+  type FieldProblem,
+} from '@server/errors/index.ts';
 
 /** "members[0].email" from ['members', 0, 'email']. */
 export function dottedPath(path: readonly PropertyKey[]): string {
@@ -24,13 +33,17 @@ function toHttpError(error: unknown): HttpError | null {
   if (error instanceof URIError) {
     return new ValidationError('The address is not valid', [{ path: '(path)', message: 'The address contains a broken percent-encoding' }]);
   }
+  if (isDatabaseUnreachable(error)) return new DatabaseUnavailableError();
   if (e?.expose && typeof e.status === 'number' && e.status >= 400 && e.status < 500) {
     return new ValidationError(`The request could not be read: ${e.message}`, [{ path: '(body)', message: e.message }]);
   }
   return null;
 }
 
-/** The one error middleware: known errors keep their status and code; anything else is a 500 without details. */
+/**
+ * The one error middleware: known errors keep their status and code; a lost database connection
+ * is a 503 (logged, no details); anything else is a 500 without details.
+ */
 export function errorHandler(error: unknown, req: Request, res: Response, _next: NextFunction): void {
   const known = toHttpError(error);
   if (res.headersSent) {
@@ -38,6 +51,7 @@ export function errorHandler(error: unknown, req: Request, res: Response, _next:
     return;
   }
   if (known) {
+    if (known instanceof DatabaseUnavailableError) console.error(`[api] ${req.method} ${req.originalUrl}: the database is not reachable (${(error as Error).message})`);
     res.status(known.status).json(known.toBody());
     return;
   }

@@ -20,6 +20,16 @@ export function createS3Storage(env: S3Settings): FileStorage & { client: S3Clie
     responseChecksumValidation: 'WHEN_REQUIRED',
   });
   const Bucket = env.S3_BUCKET;
+  const read: FileStorage['read'] = async (key) => {
+    try {
+      const out = await client.send(new GetObjectCommand({ Bucket, Key: key }));
+      const body = out.Body ? Buffer.from(await out.Body.transformToByteArray()) : Buffer.alloc(0);
+      return { body, contentType: out.ContentType ?? null, contentDisposition: out.ContentDisposition ?? null };
+    } catch (error) {
+      if (error instanceof NoSuchKey || (error as { name?: string }).name === 'NoSuchKey') return null;
+      throw error;
+    }
+  };
   return {
     client,
     async put(key, body, contentType) {
@@ -30,14 +40,9 @@ export function createS3Storage(env: S3Settings): FileStorage & { client: S3Clie
         new PutObjectCommand({ Bucket, Key: key, Body: body, ContentType: props.contentType, ContentLength: props.byteLength, ContentDisposition: props.contentDisposition }),
       );
     },
+    read,
     async get(key) {
-      try {
-        const out = await client.send(new GetObjectCommand({ Bucket, Key: key }));
-        return out.Body ? Buffer.from(await out.Body.transformToByteArray()) : Buffer.alloc(0);
-      } catch (error) {
-        if (error instanceof NoSuchKey || (error as { name?: string }).name === 'NoSuchKey') return null;
-        throw error;
-      }
+      return (await read(key))?.body ?? null;
     },
     async delete(key) {
       await client.send(new DeleteObjectCommand({ Bucket, Key: key }));

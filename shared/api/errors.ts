@@ -25,5 +25,6 @@ export const ERROR_CODES = {
   conflict: 'conflict',
   csrf: 'csrf_invalid',
   rateLimited: 'rate_limited',
+  databaseUnavailable: 'database_unavailable',
   internal: 'internal_error',
 } as const;

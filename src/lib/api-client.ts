@@ -132,7 +132,12 @@ function notify(error: ApiError): ApiError {
   ) {
     toast.show({
       tone: 'error',
-      title: error.status === 0 ? 'Connection problem' : 'Something went wrong',
+      title:
+        error.status === 0
+          ? 'Connection problem'
+          : error.status === 503
+            ? 'Temporarily unavailable'
+            : 'Something went wrong',
       message: error.message,
     });
   }

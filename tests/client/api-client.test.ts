@@ -2,6 +2,7 @@ import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { z } from 'zod';
 import { apiRequest, resetCsrfToken } from '@/lib/api-client.ts';
 import { ApiError } from '@/lib/api-error.ts';
+import { toast } from '@/components/ui/toast.tsx';
 
 type Call = { url: string; method: string; headers: Record<string, string>; body?: string };
 
@@ -123,6 +124,26 @@ describe('apiRequest', () => {
     await expect(apiRequest('/api/thing', { schema: z.object({}) })).rejects.toMatchObject({
       status: 0,
       code: 'network_error',
+    });
+  });
+
+  it("shows the server's message when a service behind it is down (503), so the person knows nothing was saved", async () => {
+    fakeServer([
+      error(
+        503,
+        'database_unavailable',
+        'The database is not reachable; nothing was saved. Try again in a moment.',
+      ),
+    ]);
+    const shown = vi.spyOn(toast, 'show');
+    await expect(apiRequest('/api/a', { method: 'POST', body: {} })).rejects.toMatchObject({
+      status: 503,
+      code: 'database_unavailable',
+    });
+    expect(shown).toHaveBeenCalledWith({
+      tone: 'error',
+      title: 'Temporarily unavailable',
+      message: 'The database is not reachable; nothing was saved. Try again in a moment.',
     });
   });
 });

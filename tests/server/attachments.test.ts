@@ -238,6 +238,49 @@ describe('orphaned objects', () => {
 });
 
 describe('attachments when file storage is down', () => {
+  it('refuses an upload while storage is stopped, keeps nothing of it, and takes the next one once storage is back, without a restart', async () => {
+    const app = await createTestApp();
+    const storage = createS3Storage(app.env);
+    try {
+      const { agent, csrf } = await signInAgent(app.app, DEMO_PEOPLE.researcher);
+      const [{ id: nb }] = (await app.dataSource.query(`SELECT id FROM notebook WHERE title = 'Stirred-tank ignition and extinction'`)) as { id: string }[];
+      const created = await agent.post(`/api/notebooks/${nb}/entries`).set('x-csrf-token', csrf).send({ title: 'Storage down and back', entryDate: '2026-12-02' });
+      const entry = (created.body as EntryDetail).entry.id;
+      const upload = (name: string) =>
+        agent.post(`/api/notebooks/${nb}/entries/${entry}/attachments`).set('x-csrf-token', csrf).attach('file', PDF_HEAD, { filename: name, contentType: 'application/pdf' }).timeout(20_000);
+      const prefix = attachmentKey(nb, entry).replace(/[^/]+$/, '');
+
+      await app.stopStorage();
+      const refused = await upload('while-down.pdf');
+      expect(refused.status).toBe(503);
+      expect(refused.body.error).toMatchObject({ code: 'storage_unavailable' });
+      expect(refused.body.error.message).toContain('the file was not saved');
+
+      await app.startStorage();
+      // Nothing of the refused upload: no row, no event, no object under the entry's prefix.
+      const rows = (await app.dataSource.query('SELECT count(*)::int AS n FROM attachment WHERE entry_id = $1', [entry])) as { n: number }[];
+      expect(rows[0].n).toBe(0);
+      expect(await auditActionsForEntry(app, entry)).not.toContain('attachment.added');
+      const leftovers: string[] = [];
+      for await (const o of storage.list(prefix)) leftovers.push(o.key);
+      expect(leftovers).toEqual([]);
+
+      // The same app and session store the next upload whole.
+      const stored = await upload('after.pdf');
+      expect(stored.status).toBe(201);
+      const attachment = attachmentSchema.parse(stored.body);
+      expect(attachment.sha256).toBe(sha(PDF_HEAD));
+      const download = await agent.get(attachment.contentUrl);
+      expect(download.status).toBe(302);
+      expect(Buffer.from(await (await fetch(download.headers.location as string)).arrayBuffer())).toEqual(PDF_HEAD);
+    } finally {
+      storage.client.destroy();
+      await closeAnalysisPool();
+      await app.close();
+    }
+  });
+
+
   it('fails with 503 and a clear message, and records nothing', async () => {
     const deadPort = await freePort();
     const app = await createTestApp({ env: { S3_ENDPOINT: `http://127.0.0.1:${deadPort}` } });
@@ -263,3 +306,8 @@ describe('attachments when file storage is down', () => {
     }
   });
 });
+
+async function auditActionsForEntry(app: Awaited<ReturnType<typeof createTestApp>>, entryId: string): Promise<string[]> {
+  const rows = (await app.dataSource.query(`SELECT action FROM audit_event WHERE summary->>'entryId' = $1`, [entryId])) as { action: string }[];
+  return rows.map((r) => r.action);
+}

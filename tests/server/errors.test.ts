@@ -1,7 +1,9 @@
-import { describe, expect, it } from 'vitest';
+import { QueryFailedError } from 'typeorm';
+import { describe, expect, it, test } from 'vitest';
 import { z } from 'zod';
 import { dottedPath, fieldsOf } from '@server/middlewares/error-handler.ts';
 import { EnvError, parseEnv } from '@server/env.ts';
+import { isDatabaseUnreachable } from '@server/errors/index.ts';
 
 describe('dottedPath', () => {
   it('writes array indices in brackets and keys with dots', () => {
@@ -49,5 +51,29 @@ describe('parseEnv', () => {
       expect((error as Error).message).toMatch(/SESSION_SECRET: Use a secret of at least 32/);
       expect((error as Error).message).not.toContain('short-secret');
     }
+  });
+});
+
+describe('isDatabaseUnreachable', () => {
+  const pgError = (code: string, message: string) => Object.assign(new Error(message), { code });
+
+  test.each([
+    ['a refused connection', Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:5432'), { code: 'ECONNREFUSED' })],
+    ['a server shutting down (57P01), wrapped by TypeORM', new QueryFailedError('SELECT 1', [], pgError('57P01', 'terminating connection due to administrator command'))],
+    ['a server still starting (57P03)', pgError('57P03', 'the database system is starting up')],
+    ['a socket cut under a client', new Error('Connection terminated unexpectedly')],
+    ['a connection that timed out (a server that never answers)', new Error('timeout exceeded when trying to connect')],
+    ['a refusal inside an AggregateError', new AggregateError([Object.assign(new Error('connect ECONNREFUSED ::1:5432'), { code: 'ECONNREFUSED' })])],
+  ])('recognises %s', (_label, error) => {
+    expect(isDatabaseUnreachable(error)).toBe(true);
+  });
+
+  test.each([
+    ['a unique violation', new QueryFailedError('INSERT', [], pgError('23505', 'duplicate key value'))],
+    ['file storage that is down (AWS SDK error)', Object.assign(new Error('connect ECONNREFUSED'), { code: 'ECONNREFUSED', $metadata: {} })],
+    ['a plain bug', new TypeError('x is undefined')],
+    ['nothing', undefined],
+  ])('leaves %s alone', (_label, error) => {
+    expect(isDatabaseUnreachable(error)).toBe(false);
   });
 });

@@ -123,6 +123,30 @@ describe('figures API', () => {
     expect(other.status).toBe(404);
   });
 
+  it('refuses a figure while file storage is stopped, keeps nothing of it, and makes the next one once storage is back, without a restart', async () => {
+    const app = logServer();
+    const figureRows = async () => ((await app.dataSource.query('SELECT id FROM figure WHERE entry_id = $1', [entryId])) as { id: string }[]).map((r) => r.id);
+    const before = await figureRows();
+    const eventsBefore = (await auditActionsFor(entryId)).filter((a) => a === 'figure.attached').length;
+
+    await app.stopStorage();
+    try {
+      const refused = await kofi.post(base, { revisionId: revision.id, cellId: SADDLE_BRANCH_CELL_ID, caption: 'While storage is down' });
+      expect(refused.status).toBe(503);
+      expect(refused.body.error).toEqual({ code: 'storage_unavailable', message: 'File storage is not reachable right now, so the figure was not saved. Try again in a moment.' });
+    } finally {
+      await app.startStorage();
+    }
+    expect(await figureRows()).toEqual(before);
+    expect((await auditActionsFor(entryId)).filter((a) => a === 'figure.attached')).toHaveLength(eventsBefore);
+
+    const res = await kofi.post(base, { revisionId: revision.id, cellId: SADDLE_BRANCH_CELL_ID, caption: 'After storage is back' });
+    expect(res.status).toBe(201);
+    const figure = figureSchema.parse(res.body);
+    const png = Buffer.from(await (await fetch((await kofi.get(figure.pngUrl)).headers.location as string)).arrayBuffer());
+    expect(sha(png)).toBe(figure.pngSha256);
+  });
+
   it('lets readers see figures but not make them', async () => {
     expect((await jun.post(base, { revisionId: revision.id, cellId: SADDLE_BRANCH_CELL_ID })).status).toBe(403);
   });

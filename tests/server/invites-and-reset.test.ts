@@ -97,6 +97,27 @@ describe('invites', () => {
   });
 });
 
+describe('invites while the mail relay is down', () => {
+  it('commits the invite and says the mail was not sent; once the relay is back the next invite is mailed, without a restart', async () => {
+    const admin = await signIn(t.app, DEMO_PEOPLE.admin);
+    await t.stopMail();
+    const unmailed = uniqueEmail('relay-down');
+    try {
+      const res = await admin.agent.post('/api/invites').set('x-csrf-token', admin.csrf).send({ email: unmailed, name: 'Relay Down' }).timeout(20_000);
+      expect(res.status).toBe(201);
+      expect(res.body).toMatchObject({ email: unmailed, mailSent: false });
+      expect(await t.dataSource.manager.exists(InviteEntity, { where: { email: unmailed } })).toBe(true);
+    } finally {
+      await t.startMail();
+    }
+    const email = uniqueEmail('relay-back');
+    const since = Date.now();
+    const res = await admin.agent.post('/api/invites').set('x-csrf-token', admin.csrf).send({ email, name: 'Relay Back' });
+    expect(res.body).toMatchObject({ email, mailSent: true });
+    expect((await t.waitForMail(email, since)).subject).toBe('You are invited to Bifolio');
+  });
+});
+
 describe('password reset', () => {
   it('mails a link that sets a new password once; the old password stops working; other sessions end', async () => {
     const person = await makeUser(t.dataSource, { label: 'forgetful' });

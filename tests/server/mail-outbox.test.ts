@@ -4,7 +4,6 @@ import { simpleParser } from 'mailparser';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { EntryDetail } from '@shared/api/entries.ts';
 import { MailMessageEntity } from '@server/entities/mail-message.entity.ts';
-import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
 import { enqueueMail } from '@server/services/mail-outbox/enqueue-mail.ts';
 import { retryDelayMs, sendDueMail, type OutboxRetryPolicy } from '@server/services/mail-outbox/send-due-mail.ts';
 import { startMailOutboxWorker } from '@server/jobs/mail-outbox-worker.ts';
@@ -16,16 +15,12 @@ const FAST: OutboxRetryPolicy = { baseDelayMs: 20, maxDelayMs: 80, maxAttempts: 
 
 describe('mail outbox', () => {
   let kofi: Client;
-  let replacement: SmtpSink | null = null;
 
   beforeAll(async () => {
     await startLogServer();
     kofi = await signIn('researcher');
   });
-  afterAll(async () => {
-    await replacement?.close();
-    await closeLogServer();
-  });
+  afterAll(closeLogServer);
 
   const row = (id: string) => logServer().dataSource.manager.findOneByOrFail(MailMessageEntity, { id });
   const deliveredSubjects = async () => {
@@ -43,8 +38,7 @@ describe('mail outbox', () => {
 
   it('keeps mail while the SMTP server is down, without blocking the request, and delivers it once the server is back', async () => {
     const app = logServer();
-    const { port, directory } = app.sink;
-    await app.sink.close();
+    await app.stopMail();
 
     // A change that mails the PI commits while the SMTP server is down.
     const notebook = await demoNotebookId('stirredTank');
@@ -69,8 +63,7 @@ describe('mail outbox', () => {
     expect(waiting.nextAttemptAt.getTime()).toBeGreaterThan(waiting.updatedAt.getTime() - 1000);
 
     // The server comes back on the same port; the running worker delivers the message.
-    replacement = await startSmtpSink({ port, directory });
-    app.sink = replacement;
+    await app.startMail();
     const worker = startMailOutboxWorker(app.dataSource, app.mailer, { intervalMs: 50, retry: FAST });
     try {
       const deadline = Date.now() + 10_000;

@@ -8,6 +8,9 @@ export interface ThrowawayCluster {
   databaseUrl: string;
   /** The superuser connection (same role: tests may disable triggers with it). */
   superuserUrl: string;
+  /** Stops the server (pg_ctl stop -m fast) and keeps the data: resume() starts it again on the same port. */
+  pause(): Promise<void>;
+  resume(): Promise<void>;
   stop(): Promise<void>;
 }
 
@@ -30,6 +33,10 @@ export async function startThrowawayCluster(database = 'bifolio_test'): Promise<
   return {
     databaseUrl: url,
     superuserUrl: url,
+    pause: () => cluster.stop(),
+    async resume() {
+      await cluster.start();
+    },
     async stop() {
       await cluster.stop().catch(() => undefined);
       rmSync(tmp, { recursive: true, force: true });

@@ -27,8 +27,17 @@ export interface TestApp {
   app: BifolioApp['app'];
   dataSource: DataSource;
   env: Env;
-  sink: SmtpSink;
+  /** The SMTP sink now running (or the last one, once stopped). */
+  readonly sink: SmtpSink;
   mailer: Mailer;
+  /** Stops the SMTP sink, as when the mail relay goes down (delivered mail stays in OUTBOX_DIR). */
+  stopMail(): Promise<void>;
+  /** Starts the SMTP sink again on the same port. */
+  startMail(): Promise<void>;
+  /** Stops the S3 fake (its objects stay on disk), as when file storage goes down. */
+  stopStorage(): Promise<void>;
+  /** Starts the S3 fake again on the same port with the same objects. */
+  startStorage(): Promise<void>;
   /** The next message to `to` that arrives after `since` (ms since epoch). */
   waitForMail(to: string, since?: number, timeoutMs?: number): Promise<ParsedMail>;
   close(): Promise<void>;
@@ -50,8 +59,10 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     BIFOLIO_DATA_DIR: tmp,
     ...options.env,
   });
-  const sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
-  const s3: FakeS3 = await startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+  let sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+  let mailRunning = true;
+  const startS3 = () => startFakeS3({ port: s3Port, directory: path.join(tmp, 's3'), bucket: env.S3_BUCKET });
+  let s3: FakeS3 | null = await startS3();
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
   const mailer = options.mailer ?? createSmtpMailer(env);
   const storage = createS3Storage(env);
@@ -78,16 +89,33 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     app: bifolio.app,
     dataSource,
     env,
-    sink,
+    get sink() {
+      return sink;
+    },
     mailer,
     waitForMail,
+    async stopMail() {
+      if (mailRunning) await sink.close();
+      mailRunning = false;
+    },
+    async startMail() {
+      if (!mailRunning) sink = await startSmtpSink({ port: smtpPort, directory: env.OUTBOX_DIR });
+      mailRunning = true;
+    },
+    async stopStorage() {
+      await s3?.close();
+      s3 = null;
+    },
+    async startStorage() {
+      s3 ??= await startS3();
+    },
     async close() {
       await bifolio.close();
       mailer.close();
       storage.client.destroy();
       await dataSource.destroy();
-      await sink.close();
-      await s3.close();
+      if (mailRunning) await sink.close();
+      await s3?.close();
       rmSync(tmp, { recursive: true, force: true });
     },
   };
@@ -95,15 +123,18 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
 
 export type Agent = ReturnType<typeof request.agent>;
 
+/** What supertest can talk to: the app in this process, or the address of a running server. */
+export type AgentTarget = TestApp['app'] | string;
+
 /** A cookie-keeping client with the session's CSRF token. */
-export async function newAgent(app: TestApp['app']): Promise<{ agent: Agent; csrf: string }> {
+export async function newAgent(app: AgentTarget): Promise<{ agent: Agent; csrf: string }> {
   const agent = request.agent(app);
   const res = await agent.get('/api/auth/csrf').expect(200);
   return { agent, csrf: res.body.csrfToken as string };
 }
 
 /** Signs in (fetching the CSRF token first) and returns the agent and token for later writes. */
-export async function signIn(app: TestApp['app'], person: { email: string; password: string }): Promise<{ agent: Agent; csrf: string }> {
+export async function signIn(app: AgentTarget, person: { email: string; password: string }): Promise<{ agent: Agent; csrf: string }> {
   const { agent, csrf } = await newAgent(app);
   const res = await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email: person.email, password: person.password });
   if (res.status !== 200) throw new Error(`sign-in as ${person.email} failed: ${res.status} ${JSON.stringify(res.body)}`);

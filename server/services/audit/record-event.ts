@@ -4,7 +4,7 @@ import type { AuditAction } from './audit-actions.ts';
 import { GENESIS_HASH, chainHash } from './canonical-json.ts';
 
 /** Key of the transaction-scoped advisory lock that serializes chain appends. */
-const AUDIT_CHAIN_LOCK = 0x61756469; // "audi"
+export const AUDIT_CHAIN_LOCK = 0x61756469; // "audi"
 
 export interface AuditEventInput {
   actorId: string | null;
