@@ -1,12 +1,13 @@
 import type { DataSource } from 'typeorm';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { RUN_ERROR_CODES, type AnalysisOutcome } from '@server/analysis/analysis-task.ts';
 import { RUN_CHANNELS, type RunNotifications } from '@server/analysis/run-notifications.ts';
 import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
 import { AnalysisRunEntity } from '@server/entities/analysis-run.entity.ts';
 import { presentRunOutcome } from '@server/presenters/cell-output.presenter.ts';
 import { recordEvent } from '@server/services/audit/record-event.ts';
-import { settleActiveRuns } from './run-rows.ts';
+import { runErrorOutput, settleActiveRuns } from './run-rows.ts';
 
 export interface ExecuteRunDeps {
   dataSource: DataSource;
@@ -38,7 +39,15 @@ export async function executeRun(deps: ExecuteRunDeps, runId: string): Promise<v
     const run = await deps.dataSource.manager.findOneByOrFail(AnalysisRunEntity, { id: runId });
     const { model, task, timeLimitMs } = run.request;
     const request = { model, task, ...(timeLimitMs !== undefined ? { timeLimitMs } : {}) };
-    const outcome = await deps.pool.run(request, { budgetMs: run.budgetMs, signal: controller.signal });
+    let outcome: AnalysisOutcome;
+    try {
+      outcome = await deps.pool.run(request, { budgetMs: run.budgetMs, signal: controller.signal });
+    } catch (error) {
+      // The pool refused it (its queue is full of reproducibility reruns): the run fails, saying why.
+      const message = error instanceof Error ? error.message : String(error);
+      await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
+      return;
+    }
     if (controller.signal.aborted) return;
 
     const computedAt = new Date();

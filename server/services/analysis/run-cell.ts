@@ -61,7 +61,14 @@ export async function runCell(deps: RunCellDeps, props: RunCellProps): Promise<R
   if ('answer' in prepared) return prepared.answer;
   const { run, superseded } = prepared;
   await deps.queue.cancel(waitingJobIds(superseded));
-  await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
+  try {
+    await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
+  } catch (error) {
+    // Not queued, so never run: the row must not stay "waiting".
+    const message = 'The run could not be queued; try again in a moment';
+    await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
+    throw error;
+  }
   return awaitRun(deps, run, props.signal);
 }
 
@@ -105,6 +112,11 @@ async function prepareRun(
     // One run in progress per cell: concurrent starts of the same cell take turns here.
     await manager.query('SELECT pg_advisory_xact_lock(hashtextextended($1, 0))', [`analysis_run:${props.entry.id}:${props.cellId}`]);
     const superseded = await cancelActiveRuns(manager, { entryId: props.entry.id, cellId: props.cellId }, 'a newer run of this cell replaced it');
+    // The cell's runs that ended over an hour ago have been answered; their record is the audit trail.
+    await manager.query(
+      `DELETE FROM analysis_run WHERE entry_id = $1 AND cell_id = $2 AND finished_at < now() - interval '1 hour'`,
+      [props.entry.id, props.cellId],
+    );
     const run = await manager.save(
       manager.create(AnalysisRunEntity, {
         notebookId: props.entry.notebookId,
