@@ -1,7 +1,7 @@
 import path from 'node:path';
 import type { DataSource } from 'typeorm';
 import { startFakeS3, type FakeS3 } from '../fake-s3/start-fake-s3.ts';
-import { createDataSource } from '@server/data-source.ts';
+import { createDataSource, migrateUnderLock } from '@server/data-source.ts';
 import type { Env } from '@server/env.ts';
 import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
 import { createS3Storage } from '@server/storage/s3-storage.ts';
@@ -40,8 +40,8 @@ export async function ensurePostgres(env: Env, log: Log): Promise<PostgresCluste
 /** Runs every pending migration. */
 export async function migrate(env: Env, log: Log): Promise<DataSource> {
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 2 }).initialize();
-  const applied = await dataSource.runMigrations({ transaction: 'each' });
-  log(applied.length ? `Migrations: applied ${applied.map((m) => m.name).join(', ')}.` : 'Migrations: up to date.');
+  const applied = await migrateUnderLock(dataSource);
+  log(applied.length ? `Migrations: applied ${applied.join(', ')}.` : 'Migrations: up to date.');
   return dataSource;
 }
 

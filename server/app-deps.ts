@@ -1,6 +1,7 @@
 import type { Request } from 'express';
 import type passport from 'passport';
 import type { DataSource } from 'typeorm';
+import type { RunQueue } from './analysis/run-queue.ts';
 import type { Env } from './env.ts';
 import type { Mailer } from './mail/mailer.ts';
 import type { RateLimits } from './middlewares/rate-limits.ts';
@@ -12,6 +13,8 @@ export interface AppDeps {
   dataSource: DataSource;
   mailer: Mailer;
   storage: FileStorage;
+  /** The cell-run queue shared by every instance, and this instance's workers and listener. */
+  runQueue: RunQueue;
 }
 
 /** What every router factory receives: the deps plus the app's own request machinery. */

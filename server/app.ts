@@ -86,7 +86,7 @@ export function createApp(deps: AppDeps, options: AppOptions = {}): BifolioApp {
   const routeDeps: RouteDeps = {
     ...deps,
     passport: passportInstance,
-    rateLimits: createRateLimits({ ...DEFAULT_RATE_LIMITS, ...options.rateLimits }),
+    rateLimits: createRateLimits(deps.dataSource, { ...DEFAULT_RATE_LIMITS, signInFailures: env.SIGN_IN_FAILURE_LIMIT, ...options.rateLimits }),
     generateCsrfToken: csrf.generateToken,
   };
   for (const route of API_ROUTES) {

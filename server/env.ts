@@ -1,3 +1,4 @@
+import os from 'node:os';
 import path from 'node:path';
 import { z } from 'zod';
 
@@ -51,6 +52,18 @@ export const envSchema = z
     SESSION_SECRET: z.string().min(32, { message: 'Use a secret of at least 32 characters' }).optional(),
     BIFOLIO_DATA_DIR: z.string().min(1).default('./data'),
     OUTBOX_DIR: z.string().optional(),
+    ANALYSIS_WORKERS: z.coerce
+      .number({ message: 'Use a whole number of worker threads' })
+      .int({ message: 'Use a whole number of worker threads' })
+      .min(0, { message: 'Use 0 (this instance only queues runs) or more' })
+      .max(64, { message: 'Use at most 64 worker threads' })
+      .default(Math.max(1, os.availableParallelism() - 1)),
+    SIGN_IN_FAILURE_LIMIT: z.coerce
+      .number({ message: 'Use a whole number of attempts' })
+      .int({ message: 'Use a whole number of attempts' })
+      .min(1, { message: 'Use at least 1 attempt' })
+      .default(10),
+    INSTANCE_NAME: z.string().min(1).max(100).default(`${os.hostname()}:${process.pid}`),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV === 'production' && !env.SESSION_SECRET) {

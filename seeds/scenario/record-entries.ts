@@ -5,7 +5,7 @@ import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import type { RevisionEntity } from '@server/entities/revision.entity.ts';
 import type { UserEntity } from '@server/entities/user.entity.ts';
 import type { FileStorage } from '@server/storage/file-storage.ts';
-import { runCell } from '@server/services/analysis/run-cell.ts';
+import { runCellInPool } from '@server/services/analysis/run-cell.ts';
 import { createEntry } from '@server/services/entries/create-entry.ts';
 import { loadEntry } from '@server/services/entries/load-entry.ts';
 import { recordRevision } from '@server/services/revisions/record-revision.ts';
@@ -54,7 +54,7 @@ async function runCells(
         `Demo cell ${cell.kind} in "${entry.title}" does not resolve: ${resolution.problems.map((p) => `${p.path}: ${p.message}`).join('; ')}`,
       );
     }
-    const response = await runCell(deps, { actor, entry, cellId: cell.id, request: resolution.request });
+    const response = await runCellInPool(deps, { actor, entry, cellId: cell.id, request: resolution.request });
     const { cached: _cached, ...output } = response;
     if (output.status !== 'ok') {
       throw new Error(

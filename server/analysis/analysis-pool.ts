@@ -6,6 +6,9 @@ import { ENGINE_DEFAULTS, ENGINE_LIMITS } from '@shared/engine/limits.ts';
 import { HttpError } from '@server/errors/index.ts';
 import { RUN_ERROR_CODES, type AnalysisOutcome, type AnalysisTask } from './analysis-task.ts';
 
+/** Time past the engine's own budget before a worker is stopped by force. */
+export const DEFAULT_GRACE_MS = 2000;
+
 export interface AnalysisPoolOptions {
   /** Worker threads (default: cores − 1, at least 1). */
   maxThreads?: number;
@@ -54,7 +57,7 @@ export class AnalysisPool {
 
   constructor(options: AnalysisPoolOptions = {}) {
     const threads = options.maxThreads ?? Math.max(1, os.availableParallelism() - 1);
-    this.graceMs = options.graceMs ?? 2000;
+    this.graceMs = options.graceMs ?? DEFAULT_GRACE_MS;
     this.capacity = threads + (options.maxQueue ?? 16);
     this.piscina = new Piscina<AnalysisTask, AnalysisOutcome>({
       filename: new URL('./analysis.worker.ts', import.meta.url).href,
@@ -118,7 +121,7 @@ export class AnalysisPool {
 
 let shared: AnalysisPool | null = null;
 
-/** The server's one pool, created on first use (with `options`, when that first use gives them). */
+/** The server's one pool, created on first use (with `options`, e.g. ANALYSIS_WORKERS threads). */
 export function getAnalysisPool(options?: AnalysisPoolOptions): AnalysisPool {
   shared ??= new AnalysisPool(options);
   return shared;

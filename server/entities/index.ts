@@ -1,4 +1,6 @@
 import { AnalysisResultEntity } from './analysis-result.entity.ts';
+import { AnalysisRunEntity } from './analysis-run.entity.ts';
+import { RateLimitHitEntity } from './rate-limit-hit.entity.ts';
 import { AuditEventEntity } from './audit-event.entity.ts';
 import { EntryDraftEntity } from './entry-draft.entity.ts';
 import { EntryEntity } from './entry.entity.ts';
@@ -17,9 +19,9 @@ import { NotificationPreferenceEntity } from './notification-preference.entity.t
 import { ReviewEntity } from './review.entity.ts';
 import { SignatureEntity } from './signature.entity.ts';
 
-export { AnalysisResultEntity, EntryDraftEntity, EntryEntity, RevisionEntity };
+export { AnalysisResultEntity, AnalysisRunEntity, RateLimitHitEntity, EntryDraftEntity, EntryEntity, RevisionEntity };
 export { CommentEntity, MailMessageEntity, NotificationPreferenceEntity, ReviewEntity, SignatureEntity };
 export { AuditEventEntity, InviteEntity, MembershipEntity, NotebookEntity, PasswordResetEntity, UserEntity };
 
 /** Every entity the DataSource knows. Register a new entity with one line here. */
-export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity, ReviewEntity, SignatureEntity, CommentEntity, MailMessageEntity, NotificationPreferenceEntity, AttachmentEntity, FigureEntity, MeasurementSetEntity];
+export const ENTITIES = [UserEntity, NotebookEntity, MembershipEntity, InviteEntity, PasswordResetEntity, AuditEventEntity, EntryEntity, RevisionEntity, EntryDraftEntity, AnalysisResultEntity, ReviewEntity, SignatureEntity, CommentEntity, MailMessageEntity, NotificationPreferenceEntity, AttachmentEntity, FigureEntity, MeasurementSetEntity, AnalysisRunEntity, RateLimitHitEntity];

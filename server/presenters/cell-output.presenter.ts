@@ -1,7 +1,8 @@
 import type { RunCellResponse, RunProgress } from '@shared/api/entries.ts';
-import type { ActiveRun } from '@server/analysis/run-registry.ts';
 import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
 import type { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
+import type { AnalysisRunEntity } from '@server/entities/analysis-run.entity.ts';
+import type { UserEntity } from '@server/entities/user.entity.ts';
 
 /** A fresh run's outcome as a cell output. */
 export function presentRunOutcome(
@@ -31,15 +32,15 @@ export function presentStoredResult(row: AnalysisResultEntity): RunCellResponse 
   };
 }
 
-/** A cell's run in progress (or none). */
-export function presentRunProgress(run: ActiveRun | null, now = new Date()): RunProgress {
+/** A cell's run in progress (or none): "waiting" while it is queued for a worker on any instance. */
+export function presentRunProgress(run: (AnalysisRunEntity & { startedBy: UserEntity }) | null, now = new Date()): RunProgress {
   if (!run) return { state: 'idle' };
   return {
-    state: run.startedAt ? 'running' : 'waiting',
+    state: run.status === 'running' ? 'running' : 'waiting',
     startedBy: { id: run.startedBy.id, name: run.startedBy.name },
-    acceptedAt: run.acceptedAt.toISOString(),
+    acceptedAt: run.queuedAt.toISOString(),
     startedAt: run.startedAt?.toISOString() ?? null,
-    elapsedMs: now.getTime() - run.acceptedAt.getTime(),
+    elapsedMs: Math.max(0, now.getTime() - run.queuedAt.getTime()),
     budgetMs: run.budgetMs,
   };
 }

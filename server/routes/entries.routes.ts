@@ -7,15 +7,15 @@ import {
   runCellSchema,
   saveDraftSchema,
 } from '@shared/api/entries.ts';
-import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
-import { runRegistry } from '@server/analysis/run-registry.ts';
 import type { RouteDeps } from '@server/app-deps.ts';
 import { NotFoundError, ValidationError } from '@server/errors/index.ts';
 import { currentUser, requireUser } from '@server/middlewares/authenticate.ts';
 import { presentRunProgress } from '@server/presenters/cell-output.presenter.ts';
 import { presentDraft, presentEntryDetail, presentEntrySummary } from '@server/presenters/entry.presenter.ts';
 import { presentRevision, presentRevisionSummary } from '@server/presenters/revision.presenter.ts';
+import { cancelRun } from '@server/services/analysis/cancel-run.ts';
 import { runCell } from '@server/services/analysis/run-cell.ts';
+import { findActiveRun } from '@server/services/analysis/run-progress.ts';
 import { createEntry } from '@server/services/entries/create-entry.ts';
 import { getEntryDetail } from '@server/services/entries/get-entry-detail.ts';
 import { listEntries } from '@server/services/entries/list-entries.ts';
@@ -38,7 +38,7 @@ const params = (req: Request) => req.params as Params;
  */
 export function entriesRoutes(deps: RouteDeps): Router {
   const router = Router({ mergeParams: true });
-  const { dataSource } = deps;
+  const { dataSource, runQueue } = deps;
   router.use(requireUser);
 
   /** Reads need no transaction. */
@@ -130,20 +130,25 @@ export function entriesRoutes(deps: RouteDeps): Router {
       if (!res.writableEnded) cancel.abort();
     });
     const output = await runCell(
-      { dataSource, pool: getAnalysisPool() },
+      { dataSource, queue: runQueue },
       { actor: ctx.actor, entry, cellId, request: body, signal: cancel.signal },
     );
-    if (!cancel.signal.aborted) res.json(output);
+    if (output && !cancel.signal.aborted) res.json(output);
   });
 
   router.get('/entries/:entryId/cells/:cellId/run', async (req, res) => {
-    const entry = await loadEntry(reading(req), { ...params(req), action: 'read' });
-    res.json(presentRunProgress(runRegistry.get(entry.id, params(req).cellId)));
+    const ctx = reading(req);
+    const entry = await loadEntry(ctx, { ...params(req), action: 'read' });
+    const { cellId } = params(req);
+    res.json(presentRunProgress(isUuid(cellId) ? await findActiveRun(ctx.manager, { entryId: entry.id, cellId }) : null));
   });
 
   router.delete('/entries/:entryId/cells/:cellId/run', async (req, res) => {
     const entry = await loadEntry(reading(req), { ...params(req), action: 'run' });
-    if (!runRegistry.cancel(entry.id, params(req).cellId)) throw new NotFoundError('This cell has no run in progress');
+    const cellId = params(req).cellId;
+    if (!isUuid(cellId) || !(await cancelRun({ dataSource, queue: runQueue }, { entryId: entry.id, cellId }))) {
+      throw new NotFoundError('This cell has no run in progress');
+    }
     res.status(204).end();
   });
 

@@ -245,9 +245,10 @@ export const runCellResponseSchema = z.intersection(cellOutputSchema, z.object({
 export type RunCellResponse = z.infer<typeof runCellResponseSchema>;
 
 /**
- * GET …/cells/:cellId/run: whether the cell has a run in progress in the server. "waiting": the
- * run waits for a free worker; "running": a worker is on it, for at most `budgetMs` (then it
- * returns what it has). DELETE on the same path cancels it.
+ * GET …/cells/:cellId/run: whether the cell has a run in progress on any server instance.
+ * "waiting": the run waits in the queue for a free worker (its budget has not started);
+ * "running": a worker is on it, for at most `budgetMs` (then it returns what it has).
+ * DELETE on the same path cancels it, whichever instance runs it.
  */
 export const runProgressSchema = z.discriminatedUnion('state', [
   z.object({ state: z.literal('idle') }),

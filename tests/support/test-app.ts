@@ -1,10 +1,12 @@
 import 'reflect-metadata';
+import { randomUUID } from 'node:crypto';
 import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { simpleParser, type ParsedMail } from 'mailparser';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
+import type { RunQueue, RunWaitLimits } from '@server/analysis/run-queue.ts';
 import { inject } from 'vitest';
 import type { NotebookRole, SiteRole } from '@shared/domain/roles.ts';
 import { startFakeS3, type FakeS3 } from '../../fake-s3/start-fake-s3.ts';
@@ -13,6 +15,7 @@ import { createDataSource } from '@server/data-source.ts';
 import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
 import type { UserEntity } from '@server/entities/user.entity.ts';
 import { parseEnv, type Env } from '@server/env.ts';
+import { startAnalysisRunWorker } from '@server/jobs/analysis-run-worker.ts';
 import { createSmtpMailer, type Mailer } from '@server/mail/mailer.ts';
 import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
 import { addMember } from '@server/services/members/add-member.ts';
@@ -38,6 +41,7 @@ export interface TestApp {
   stopStorage(): Promise<void>;
   /** Starts the S3 fake again on the same port with the same objects. */
   startStorage(): Promise<void>;
+  runQueue: RunQueue;
   /** The next message to `to` that arrives after `since` (ms since epoch). */
   waitForMail(to: string, since?: number, timeoutMs?: number): Promise<ParsedMail>;
   close(): Promise<void>;
@@ -45,9 +49,13 @@ export interface TestApp {
 
 /**
  * The real app against the run's test database, with an in-process SMTP sink and S3 fake
- * on free ports. One per test file (beforeAll/afterAll).
+ * on free ports, and the cell-run queue with this process's analysis workers. Its rate-limit
+ * counters are its own (a fresh namespace), as if it were the only server. One per test file
+ * (beforeAll/afterAll).
  */
-export async function createTestApp(options: AppOptions & { mailer?: Mailer; env?: Record<string, string> } = {}): Promise<TestApp> {
+export async function createTestApp(
+  options: AppOptions & { mailer?: Mailer; env?: Record<string, string>; runWait?: Partial<RunWaitLimits> } = {},
+): Promise<TestApp> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'bifolio-app-'));
   const [smtpPort, s3Port] = [await freePort(), await freePort()];
   const env = parseEnv({
@@ -66,7 +74,11 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
   const mailer = options.mailer ?? createSmtpMailer(env);
   const storage = createS3Storage(env);
-  const bifolio = createApp({ env, dataSource, mailer, storage }, { sessionPruneSeconds: false, ...options });
+  const runQueue = await startAnalysisRunWorker(env, dataSource, { wait: options.runWait });
+  const bifolio = createApp(
+    { env, dataSource, mailer, storage, runQueue },
+    { sessionPruneSeconds: false, ...options, rateLimits: { namespace: `test-${randomUUID()}`, ...options.rateLimits } },
+  );
 
   async function waitForMail(to: string, since = 0, timeoutMs = 10_000): Promise<ParsedMail> {
     const deadline = Date.now() + timeoutMs;
@@ -93,6 +105,7 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
       return sink;
     },
     mailer,
+    runQueue,
     waitForMail,
     async stopMail() {
       if (mailRunning) await sink.close();
@@ -111,6 +124,7 @@ export async function createTestApp(options: AppOptions & { mailer?: Mailer; env
     },
     async close() {
       await bifolio.close();
+      await runQueue.stop();
       mailer.close();
       storage.client.destroy();
       await dataSource.destroy();

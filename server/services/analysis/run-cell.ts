@@ -1,16 +1,21 @@
+import { randomUUID } from 'node:crypto';
 import type { DataSource } from 'typeorm';
 import type { RunCellInput, RunCellResponse } from '@shared/api/entries.ts';
 import { analyzeRequestSchema, ENGINE_ERROR_CODES, type AnalyzeResult } from '@shared/engine/contract.ts';
 import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
-import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
-import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
-import { runRegistry } from '@server/analysis/run-registry.ts';
+import { DEFAULT_GRACE_MS, type AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
+import { RUN_CHANNELS } from '@server/analysis/run-notifications.ts';
+import type { RunQueue } from '@server/analysis/run-queue.ts';
 import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts';
+import { AnalysisRunEntity } from '@server/entities/analysis-run.entity.ts';
 import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { presentRunOutcome, presentStoredResult } from '@server/presenters/cell-output.presenter.ts';
-import { recordEvent } from '@server/services/audit/record-event.ts';
+import { cancelActiveRuns, cancelRun, waitingJobIds } from './cancel-run.ts';
+import { executeRun } from './execute-run.ts';
 import { requestInputHash } from './request-hash.ts';
+import { runErrorOutput, settleActiveRuns } from './run-rows.ts';
 
 /**
  * A run cut short by its time budget depends on the machine's load and the budget: it is stored
@@ -27,6 +32,11 @@ function stoppedByTimeLimit(result: AnalyzeResult): boolean {
   return reasons.includes('time-limit');
 }
 
+export interface RunCellDeps {
+  dataSource: DataSource;
+  queue: RunQueue;
+}
+
 export interface RunCellProps {
   actor: { id: string; name: string };
   /** The entry the cell belongs to (loaded and authorized for "run"). */
@@ -39,71 +49,148 @@ export interface RunCellProps {
 
 /**
  * Runs a cell's engine request, or answers from the store of earlier runs with the same input
- * hash. Runs happen outside any transaction (they may take seconds); the result and the audit
- * event are written together afterwards. Successful runs are stored (the latest run of an input
- * replaces an earlier one); request errors come back as an error output with the field path and
- * are not stored. A cancelled run writes nothing.
+ * hash. A run is a row (analysis_run) and a job in the queue every instance shares: this
+ * instance queues it (superseding the cell's earlier run), and waits for whichever instance's
+ * worker takes it to write its output (see execute-run.ts), woken by a notification or, failing
+ * that, a slow poll. The engine's time budget starts when a worker takes the run, not while it
+ * waits; a run that waits longer than the queue limit fails as "queue busy". Returns null when
+ * the caller went away (the run is cancelled).
  */
-export async function runCell(deps: { dataSource: DataSource; pool: AnalysisPool }, props: RunCellProps): Promise<RunCellResponse> {
+export async function runCell(deps: RunCellDeps, props: RunCellProps): Promise<RunCellResponse | null> {
+  const prepared = await prepareRun(deps.dataSource, props);
+  if ('answer' in prepared) return prepared.answer;
+  const { run, superseded } = prepared;
+  await deps.queue.cancel(waitingJobIds(superseded));
+  try {
+    await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
+  } catch (error) {
+    // Not queued, so never run: the row must not stay "waiting".
+    const message = 'The run could not be queued; try again in a moment';
+    await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
+    throw error;
+  }
+  return awaitRun(deps, run, props.signal);
+}
+
+/**
+ * The same run computed at once in the given pool, without the queue or waiting: for the demo
+ * seed, which records entries before any server runs. Stores the same rows and audit event.
+ */
+export async function runCellInPool(deps: { dataSource: DataSource; pool: AnalysisPool }, props: Omit<RunCellProps, 'signal'>): Promise<RunCellResponse> {
+  const prepared = await prepareRun(deps.dataSource, props);
+  if ('answer' in prepared) return prepared.answer;
+  await executeRun({ dataSource: deps.dataSource, pool: deps.pool, instance: 'seed' }, prepared.run.id);
+  const run = await deps.dataSource.manager.findOneByOrFail(AnalysisRunEntity, { id: prepared.run.id });
+  return run.output ?? runErrorOutput(run, RUN_ERROR_CODES.crashed, 'The run ended without an output');
+}
+
+/**
+ * What every run starts with: a bad budget or a stored result answers at once; otherwise the
+ * run's row is queued, superseding (cancelling) the cell's run in progress.
+ */
+async function prepareRun(
+  dataSource: DataSource,
+  props: Omit<RunCellProps, 'signal'>,
+): Promise<{ answer: RunCellResponse } | { run: AnalysisRunEntity; superseded: AnalysisRunEntity[] }> {
   const { model, task, timeLimitMs } = props.request;
   const inputHash = requestInputHash(ENGINE_VERSION, { model, task });
   const budgetCheck = analyzeRequestSchema.shape.timeLimitMs.safeParse(timeLimitMs);
   if (!budgetCheck.success) {
     const message = `timeLimitMs: ${budgetCheck.error.issues[0]?.message ?? 'not a valid time budget'}`;
-    return presentRunOutcome(
+    const answer = presentRunOutcome(
       { status: 'error', error: { code: ENGINE_ERROR_CODES.invalidRequest, message, path: 'timeLimitMs' }, elapsedMs: 0 },
       { inputHash, engineVersion: ENGINE_VERSION, computedAt: new Date() },
     );
+    return { answer };
   }
-  const stored = await deps.dataSource.manager.findOne(AnalysisResultEntity, { where: { inputHash } });
-  if (stored && !stoppedByTimeLimit(stored.result)) return presentStoredResult(stored);
+  const stored = await dataSource.manager.findOneBy(AnalysisResultEntity, { inputHash });
+  if (stored && !stoppedByTimeLimit(stored.result)) return { answer: presentStoredResult(stored) };
 
   const budgetMs = budgetCheck.data ?? ENGINE_DEFAULTS.timeLimitMs;
-  const run = runRegistry.begin({ entryId: props.entry.id, cellId: props.cellId, startedBy: props.actor, budgetMs });
-  const signal = props.signal ? AbortSignal.any([props.signal, run.controller.signal]) : run.controller.signal;
-  let outcome: AnalysisOutcome;
-  try {
-    const request = { model, task, ...(budgetCheck.data !== undefined ? { timeLimitMs: budgetCheck.data } : {}) };
-    outcome = await deps.pool.run(request, { budgetMs, signal, onStart: () => runRegistry.markStarted(run) });
-  } finally {
-    runRegistry.finish(run);
-  }
-  const computedAt = new Date();
-  const output = presentRunOutcome(outcome, { inputHash, engineVersion: ENGINE_VERSION, computedAt });
-  if (signal.aborted) return output;
-
-  await deps.dataSource.transaction(async (manager) => {
-    if (outcome.status === 'ok') {
-      await manager
-        .createQueryBuilder()
-        .insert()
-        .into(AnalysisResultEntity)
-        .values({
-          inputHash,
-          engineVersion: ENGINE_VERSION,
-          taskKind: typeof task.kind === 'string' ? task.kind : 'unknown',
-          result: outcome.result,
-          elapsedMs: outcome.elapsedMs,
-          computedAt,
-        })
-        .orUpdate(['engine_version', 'task_kind', 'result', 'elapsed_ms', 'computed_at'], ['input_hash'])
-        .execute();
-    }
-    await recordEvent(manager, {
-      actorId: props.actor.id,
-      action: 'cell.run',
-      entityType: 'cell',
-      entityId: props.cellId,
-      notebookId: props.entry.notebookId,
-      summary: {
+  const request = { model, task: task as AnalysisRunEntity['request']['task'], ...(budgetCheck.data !== undefined ? { timeLimitMs: budgetCheck.data } : {}) };
+  return dataSource.transaction(async (manager) => {
+    // One run in progress per cell: concurrent starts of the same cell take turns here.
+    await manager.query('SELECT pg_advisory_xact_lock(hashtextextended($1, 0))', [`analysis_run:${props.entry.id}:${props.cellId}`]);
+    const superseded = await cancelActiveRuns(manager, { entryId: props.entry.id, cellId: props.cellId }, 'a newer run of this cell replaced it');
+    // The cell's runs that ended over an hour ago have been answered; their record is the audit trail.
+    await manager.query(
+      `DELETE FROM analysis_run WHERE entry_id = $1 AND cell_id = $2 AND finished_at < now() - interval '1 hour'`,
+      [props.entry.id, props.cellId],
+    );
+    const run = await manager.save(
+      manager.create(AnalysisRunEntity, {
+        notebookId: props.entry.notebookId,
         entryId: props.entry.id,
+        cellId: props.cellId,
         inputHash,
-        engineVersion: ENGINE_VERSION,
-        status: outcome.status,
-        elapsedMs: outcome.elapsedMs,
-        ...(outcome.status === 'error' ? { errorCode: outcome.error.code } : {}),
-      },
-    });
+        request,
+        startedById: props.actor.id,
+        status: 'queued',
+        budgetMs,
+        jobId: randomUUID(),
+        queuedAt: new Date(),
+      }),
+    );
+    return { run, superseded };
   });
-  return output;
+}
+
+/**
+ * Waits until the run is over and returns its output. Each turn reads the row; between turns it
+ * sleeps until the run's "settled" notification, the caller going away, or the poll interval.
+ * On a poll it also checks the run's job: one that pg-boss failed (the instance running it
+ * stopped and the job expired) or that is gone fails the run with a clear message.
+ */
+async function awaitRun(deps: RunCellDeps, first: AnalysisRunEntity, signal?: AbortSignal): Promise<RunCellResponse | null> {
+  const { wait } = deps.queue;
+  const hardLimitMs = first.budgetMs + DEFAULT_GRACE_MS;
+  let wake: (() => void) | null = null;
+  const onWake = () => wake?.();
+  const stopListening = deps.queue.notifications.on(RUN_CHANNELS.settled, first.id, onWake);
+  signal?.addEventListener('abort', onWake);
+  let polled = false;
+  try {
+    for (;;) {
+      let timer: NodeJS.Timeout | undefined;
+      const woken = new Promise<boolean>((resolve) => {
+        wake = () => resolve(false);
+        timer = setTimeout(() => resolve(true), wait.pollMs);
+      });
+      const run = await deps.dataSource.manager.findOneBy(AnalysisRunEntity, { id: first.id });
+      if (!run) return runErrorOutput(first, RUN_ERROR_CODES.cancelled, 'The run was removed with its entry');
+      if (run.output) return run.output;
+      if (signal?.aborted) {
+        await cancelRun(deps, { id: run.id }, 'its request was closed');
+        return null;
+      }
+      await failIfOverdue(deps, run, hardLimitMs, polled);
+      polled = await woken;
+      clearTimeout(timer);
+    }
+  } finally {
+    wake = null;
+    stopListening();
+    signal?.removeEventListener('abort', onWake);
+  }
+}
+
+/** Fails a run that waited in the queue too long, or whose worker is gone (checked on polls). */
+async function failIfOverdue(deps: RunCellDeps, run: AnalysisRunEntity, hardLimitMs: number, checkJob: boolean): Promise<void> {
+  const now = Date.now();
+  let failure: { code: string; message: string } | null = null;
+  if (run.status === 'queued' && now - run.queuedAt.getTime() > deps.queue.wait.queueWaitMs) {
+    const seconds = Math.round(deps.queue.wait.queueWaitMs / 1000);
+    failure = { code: RUN_ERROR_CODES.queueBusy, message: `The analysis queue is busy: no worker was free for this run within ${seconds} s; try again in a moment` };
+  } else if (run.status === 'running' && run.startedAt && now - run.startedAt.getTime() > deps.queue.runningLimitMs(hardLimitMs)) {
+    failure = { code: RUN_ERROR_CODES.crashed, message: 'The server running this analysis stopped answering before it finished; run it again' };
+  } else if (checkJob && run.jobId) {
+    const state = await deps.queue.jobState(run.jobId);
+    if (state === 'failed' || state === 'cancelled' || state === 'completed' || state === null) {
+      failure = { code: RUN_ERROR_CODES.crashed, message: 'The server running this analysis stopped before it finished; run it again' };
+    }
+  }
+  if (!failure) return;
+  const { code, message } = failure;
+  const ended = await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, code, message)));
+  await deps.queue.cancel(waitingJobIds(ended));
 }

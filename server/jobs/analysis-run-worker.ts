@@ -1,0 +1,28 @@
+import type { DataSource } from 'typeorm';
+import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
+import { RunQueue, type RunWaitLimits } from '@server/analysis/run-queue.ts';
+import type { Env } from '@server/env.ts';
+import { executeRun } from '@server/services/analysis/execute-run.ts';
+
+/**
+ * This instance's part of the shared cell-run queue: ANALYSIS_WORKERS pg-boss workers, each
+ * running one run at a time in the instance's worker-thread pool (sized to match, and started
+ * now so the first run does not wait for the engine to load). With 0 workers the instance only
+ * queues runs and waits for other instances to compute them.
+ */
+export async function startAnalysisRunWorker(
+  env: Pick<Env, 'DATABASE_URL' | 'ANALYSIS_WORKERS' | 'INSTANCE_NAME'>,
+  dataSource: DataSource,
+  options: { wait?: Partial<RunWaitLimits> } = {},
+): Promise<RunQueue> {
+  const workers = env.ANALYSIS_WORKERS;
+  const pool = workers > 0 ? getAnalysisPool({ maxThreads: workers }) : null;
+  return RunQueue.start({
+    databaseUrl: env.DATABASE_URL,
+    workers,
+    wait: options.wait,
+    handle: async (job, notifications) => {
+      if (pool) await executeRun({ dataSource, pool, notifications, instance: env.INSTANCE_NAME }, job.runId);
+    },
+  });
+}

@@ -1,0 +1,70 @@
+import PgBoss from 'pg-boss';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runCellResponseSchema, type EntryDetail } from '@shared/api/entries.ts';
+import { ANALYSIS_QUEUE, type AnalysisJobData } from '@server/analysis/run-queue.ts';
+import { createTestApp, makeNotebook, makeUser, signIn, type Agent, type TestApp } from '../support/test-app.ts';
+
+/**
+ * The run queue seen from an instance with no analysis workers (ANALYSIS_WORKERS=0): nothing
+ * here computes, so the tests play the part of the other instances with their own pg-boss client.
+ */
+describe('cell runs on a queue-only instance', () => {
+  let t: TestApp;
+  let agent: Agent;
+  let csrf: string;
+  let runUrl: (cellId: string) => string;
+  let boss: PgBoss;
+  const request = {
+    model: { variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 1 }], definitions: [] },
+    task: { kind: 'equilibria', box: { x: [-2, 2] }, starts: 4 },
+  };
+  const post = (cellId: string, body: object) => agent.post(runUrl(cellId)).set('x-csrf-token', csrf).send(body);
+  const runRow = async (cellId: string) =>
+    ((await t.dataSource.query(`SELECT id, status, job_id FROM analysis_run WHERE cell_id = $1`, [cellId])) as { id: string; status: string; job_id: string }[])[0];
+
+  beforeAll(async () => {
+    t = await createTestApp({ env: { ANALYSIS_WORKERS: '0' }, runWait: { queueWaitMs: 1500, pollMs: 200 } });
+    const person = await makeUser(t.dataSource, { label: 'queue' });
+    const notebook = await makeNotebook(t.dataSource, person.user);
+    ({ agent, csrf } = await signIn(t.app, person));
+    const entry = (await agent.post(`/api/notebooks/${notebook.id}/entries`).set('x-csrf-token', csrf).send({ title: 'Queue', entryDate: '2026-12-01' })).body as EntryDetail;
+    runUrl = (cellId) => `/api/notebooks/${notebook.id}/entries/${entry.entry.id}/cells/${cellId}/run`;
+    boss = new PgBoss({ connectionString: t.env.DATABASE_URL, max: 2, supervise: false, schedule: false, migrate: false });
+    await boss.start();
+  });
+  afterAll(async () => {
+    await boss?.stop({ graceful: false });
+    await t?.close();
+  });
+
+  it('answers "the analysis queue is busy" when no instance takes the run in time, and takes the job off the queue', async () => {
+    const cellId = crypto.randomUUID();
+    const res = await post(cellId, request);
+    expect(res.status).toBe(200);
+    const output = runCellResponseSchema.parse(res.body);
+    expect(output).toMatchObject({ status: 'error', cached: false, error: { code: 'run_queue_busy' } });
+    expect(output.error?.message).toMatch(/analysis queue is busy/);
+    const row = await runRow(cellId);
+    expect(row.status).toBe('failed');
+    expect((await boss.getJobById(ANALYSIS_QUEUE, row.job_id))?.state).toBe('cancelled');
+  });
+
+  it('fails the run with a clear message when the instance that took it stops and its job fails', async () => {
+    const cellId = crypto.randomUUID();
+    const pending = post(cellId, request).then((r) => r);
+    // Another instance takes the job and marks the run running, then dies: pg-boss fails the job at its expiry.
+    let jobs: PgBoss.Job<AnalysisJobData>[] = [];
+    for (let i = 0; i < 50 && jobs.length === 0; i += 1) {
+      await new Promise((r) => setTimeout(r, 20));
+      jobs = (await boss.fetch<AnalysisJobData>(ANALYSIS_QUEUE)).filter(Boolean);
+    }
+    expect(jobs).toHaveLength(1);
+    await t.dataSource.query(`UPDATE analysis_run SET status = 'running', started_at = now(), instance = 'gone' WHERE id = $1`, [jobs[0].data.runId]);
+    await boss.fail(ANALYSIS_QUEUE, jobs[0].id, { message: 'job failed by timeout in active state' });
+
+    const output = runCellResponseSchema.parse((await pending).body);
+    expect(output).toMatchObject({ status: 'error', error: { code: 'run_failed' } });
+    expect(output.error?.message).toMatch(/stopped before it finished/);
+    expect((await runRow(cellId)).status).toBe('failed');
+  });
+});
