@@ -6,7 +6,6 @@ import { HEAVY_CHUNKS } from './scripts/heavy-chunks.ts';
 
 const r = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 
-
 export default defineConfig({
   plugins: [react(), tailwindcss()],
   resolve: {
@@ -27,11 +26,14 @@ export default defineConfig({
         // The heavy libraries each get their own chunk, loaded only by the code that imports
         // them lazily (charts, the editor, maths typesetting, expression parsing); none may end up
         // in the first page's JS (checked by `npm run bench -- client`).
+        // A group takes its modules' dependencies along (which keeps execution order right), so
+        // React gets its own group first: otherwise it would follow the editor or vega into their
+        // chunks and the first page would load them to get React.
         codeSplitting: {
-          // Only the library's own modules: with their dependencies, React would follow the editor
-          // and vega into their chunks and the first page would load them to get React.
-          includeDependenciesRecursively: false,
-          groups: HEAVY_CHUNKS.map(({ name, test }) => ({ name, test })),
+          groups: [
+            { name: 'react', test: /[\\/]node_modules[\\/](?:react|react-dom|scheduler)[\\/]/, priority: 1 },
+            ...HEAVY_CHUNKS.map(({ name, test }) => ({ name, test })),
+          ],
         },
       },
     },
