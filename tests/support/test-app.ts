@@ -8,21 +8,17 @@ import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import type { RunQueue, RunWaitLimits } from '@server/analysis/run-queue.ts';
 import { inject } from 'vitest';
-import type { NotebookRole, SiteRole } from '@shared/domain/roles.ts';
 import { startFakeS3, type FakeS3 } from '../../fake-s3/start-fake-s3.ts';
 import { createApp, type AppOptions, type BifolioApp } from '@server/app.ts';
 import { createDataSource } from '@server/data-source.ts';
-import type { NotebookEntity } from '@server/entities/notebook.entity.ts';
-import type { UserEntity } from '@server/entities/user.entity.ts';
 import { parseEnv, type Env } from '@server/env.ts';
 import { startAnalysisRunWorker } from '@server/jobs/analysis-run-worker.ts';
 import { createSmtpMailer, type Mailer } from '@server/mail/mailer.ts';
 import { startSmtpSink, type SmtpSink } from '@server/mail/smtp-sink.ts';
-import { addMember } from '@server/services/members/add-member.ts';
-import { createNotebook } from '@server/services/notebooks/create-notebook.ts';
-import { createUser } from '@server/services/users/create-user.ts';
 import { createS3Storage } from '@server/storage/s3-storage.ts';
 import { freePort } from './free-port.ts';
+
+export { makeNotebook, makeUser, uniqueEmail, type TestPerson } from './factories.ts';
 
 export const TEST_PUBLIC_URL = 'http://127.0.0.1:4800';
 
@@ -153,36 +149,4 @@ export async function signIn(app: AgentTarget, person: { email: string; password
   const res = await agent.post('/api/auth/sign-in').set('x-csrf-token', csrf).send({ email: person.email, password: person.password });
   if (res.status !== 200) throw new Error(`sign-in as ${person.email} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return { agent, csrf };
-}
-
-let counter = 0;
-export const uniqueEmail = (label: string) => `${label}.${Date.now().toString(36)}${(counter++).toString(36)}@test.example`;
-
-export interface TestPerson {
-  user: UserEntity;
-  email: string;
-  password: string;
-}
-
-/** A new account with a known password. */
-export async function makeUser(dataSource: DataSource, props: { label?: string; siteRole?: SiteRole } = {}): Promise<TestPerson> {
-  const email = uniqueEmail(props.label ?? 'person');
-  const password = `pw-${email}`;
-  const user = await dataSource.transaction((manager) =>
-    createUser({ actor: null, manager }, { email, name: `Test ${props.label ?? 'person'}`, password, siteRole: props.siteRole ?? 'member', via: 'test' }),
-  );
-  return { user, email, password };
-}
-
-/** A notebook whose PI is `pi`, with the other members added. */
-export async function makeNotebook(
-  dataSource: DataSource,
-  pi: UserEntity,
-  members: { user: UserEntity; role: NotebookRole }[] = [],
-): Promise<NotebookEntity> {
-  return dataSource.transaction(async (manager) => {
-    const { notebook } = await createNotebook({ actor: pi, manager }, { title: `Test notebook ${uniqueEmail('nb')}`, description: '' });
-    for (const m of members) await addMember({ actor: pi, manager }, { notebookId: notebook.id, email: m.user.email, role: m.role });
-    return notebook;
-  });
 }

@@ -1,6 +1,7 @@
 import { useParams } from 'react-router';
 import type { Notebook } from '@shared/api/notebooks.ts';
-import { EntryLog } from '@/features/entries/index.ts';
+// Not from the feature's index: that also exports the entry page, which would bring the editor's chunk to this page.
+import { EntryLog } from '@/features/entries/components/entry-log.tsx';
 import { MembersPanel } from '@/features/members/components/members-panel.tsx';
 import { useNotebook } from '@/features/notebooks/api/get-notebook.ts';
 import { NotebookOverview } from '@/features/notebooks/components/notebook-overview.tsx';
