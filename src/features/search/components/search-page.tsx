@@ -3,6 +3,8 @@ import { Link } from 'react-router';
 import { ENTRY_STATUSES, ENTRY_STATUS_LABELS } from '@shared/api/entries.ts';
 import { SEARCH_EVENT_KINDS, SEARCH_EVENT_LABELS, type SearchHit, type SearchQueryInput } from '@shared/api/search.ts';
 import { Button } from '@/components/ui/button.tsx';
+import { KatexFormula } from '@/components/ui/katex-formula.tsx';
+import { latexToText } from '@shared/editor/inline-maths.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { useSearchEntries } from '../api/search-entries.ts';
 
@@ -113,7 +115,7 @@ function SearchResult({ hit, href }: { hit: SearchHit; href: string }) {
         {hit.notebook.title} · {hit.entryDate} · {hit.author.name} · {ENTRY_STATUS_LABELS[hit.status]}
       </p>
       <p className="mt-1 text-sm">
-        {hit.snippet.map((part, i) => (part.hit ? <mark key={i}>{part.text}</mark> : <span key={i}>{part.text}</span>))}
+        <SnippetText parts={hit.snippet} />
       </p>
       {hit.events.length > 0 && (
         <p className="mt-1 text-xs text-ink-muted">
@@ -121,5 +123,20 @@ function SearchResult({ hit, href }: { hit: SearchHit; href: string }) {
         </p>
       )}
     </li>
+  );
+}
+
+/**
+ * A search snippet: matched words marked, formulas typeset (a formula KaTeX cannot read, or one
+ * holding a matched word, still reads as words rather than LaTeX).
+ */
+export function SnippetText({ parts }: { parts: SearchHit['snippet'] }) {
+  return (
+    <>
+      {parts.map((part, i) => {
+        const content = part.maths ? <KatexFormula latex={part.text} fallback={latexToText(part.text)} /> : part.text;
+        return part.hit ? <mark key={i}>{content}</mark> : <span key={i}>{content}</span>;
+      })}
+    </>
   );
 }
