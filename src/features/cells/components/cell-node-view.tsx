@@ -6,7 +6,7 @@ import type { Freshness } from '@shared/cells/resolve.ts';
 import { Badge, type BadgeTone } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
 import { cn } from '@/components/ui/cn.ts';
-import { NORM_AXIS } from '../plots/branch-diagram-spec.ts';
+import { NORM_AXIS } from '@shared/plots/branch-diagram-spec.ts';
 import { useCellsRuntime } from '../runtime/cells-context.tsx';
 import { BranchForm, EquilibriaForm, FoldMapForm, TrajectoryForm } from './analysis-forms.tsx';
 import { CellErrorBoundary } from './cell-error-boundary.tsx';
