@@ -189,7 +189,7 @@ export function BranchOutput({
                   <td className={td}>
                     <button
                       type="button"
-                      className="font-medium text-accent underline-offset-2 hover:underline"
+                      className="inline-flex min-h-6 items-center font-medium text-accent underline-offset-2 hover:underline"
                       onClick={() => select(i)}
                     >
                       {EVENT_NAMES[e.kind]}

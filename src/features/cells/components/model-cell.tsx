@@ -143,7 +143,7 @@ function SectionHead({ title, onAdd, addLabel }: { title: string; onAdd?: () => 
         <button
           type="button"
           onClick={onAdd}
-          className="rounded-sm px-2 py-0.5 text-xs font-medium text-accent hover:bg-accent-soft"
+          className="inline-flex min-h-6 items-center rounded-sm px-2 text-xs font-medium text-accent hover:bg-accent-soft"
         >
           + {addLabel}
         </button>
