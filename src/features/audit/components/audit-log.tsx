@@ -4,7 +4,7 @@ import { buttonClass, Button } from '@/components/ui/button.tsx';
 import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { Input, Select } from '@/components/ui/input.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
-import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
+import { SkeletonRows } from '@/components/ui/skeleton.tsx';
 import { ApiError } from '@/lib/api-error.ts';
 import { formatDateTime } from '@/lib/format.ts';
 import { auditCsvHref, useAudit } from '../api/get-audit.ts';
@@ -105,7 +105,7 @@ export function AuditLog({ scope }: { scope: AuditScope }) {
           Download CSV
         </a>
       </form>
-      {audit.isPending && <SkeletonBlock lines={6} label="Loading the audit trail" />}
+      {audit.isPending && <SkeletonRows rows={8} rowHeight="h-14" header label="Loading the audit trail" />}
       {audit.isError && <QueryError error={audit.error} what={fieldError?.fields.length ? `the audit trail (${fieldError.fields.map((f) => f.message).join('; ')})` : 'the audit trail'} />}
       {audit.data && audit.data.events.length === 0 && <EmptyState title="Nothing recorded">No recorded action matches these filters.</EmptyState>}
       {audit.data && audit.data.events.length > 0 && (

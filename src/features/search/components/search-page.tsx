@@ -4,6 +4,8 @@ import { ENTRY_STATUSES, ENTRY_STATUS_LABELS } from '@shared/api/entries.ts';
 import { SEARCH_EVENT_KINDS, SEARCH_EVENT_LABELS, type SearchHit, type SearchQueryInput } from '@shared/api/search.ts';
 import { Button } from '@/components/ui/button.tsx';
 import { KatexFormula } from '@/components/ui/katex-formula.tsx';
+import { getEntryQueryOptions } from '@/features/entries/api/get-entry.ts';
+import { usePrefetchOnIntent } from '@/lib/prefetch.ts';
 import { latexToText } from '@shared/editor/inline-maths.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { useSearchEntries } from '../api/search-entries.ts';
@@ -106,9 +108,10 @@ export function SearchPage(props: { entryHref: (notebookId: string, entryId: str
 }
 
 function SearchResult({ hit, href }: { hit: SearchHit; href: string }) {
+  const prefetch = usePrefetchOnIntent();
   return (
     <li className="rounded-lg border border-rule bg-surface p-3">
-      <Link to={href} className="font-serif text-lg font-bold text-accent underline">
+      <Link to={href} {...prefetch((qc) => qc.prefetchQuery(getEntryQueryOptions(hit.notebook.id, hit.entryId)))} className="font-serif text-lg font-bold text-accent underline">
         {hit.title}
       </Link>
       <p className="text-xs text-ink-muted">
