@@ -32,7 +32,8 @@ export function snippetParts(headline: string): SnippetPart[] {
   headline.split(FRAGMENT_DELIMITER).forEach((fragment, i) => {
     if (i > 0) parts.push({ text: FRAGMENT_DELIMITER, hit: false });
     for (const segment of splitMathsFragment(fragment)) {
-      if (segment.kind === 'text') parts.push(...markedParts(segment.text));
+      // Heading marks of the plain text ("## Aim") say nothing in a one-line snippet.
+      if (segment.kind === 'text') parts.push(...markedParts(segment.text.replace(/(^|\s)#{1,6}(?= )/g, '$1').replace(/ {2,}/g, ' ')));
       else parts.push({ text: segment.latex.replaceAll(START, '').replaceAll(STOP, ''), hit: segment.latex.includes(START), maths: true });
     }
   });

@@ -1,6 +1,5 @@
 import katex from 'katex';
 import { useMemo, type ReactNode } from 'react';
-import { splitMaths } from '@shared/editor/inline-maths.ts';
 import { cn } from './cn.ts';
 
 /** Render LaTeX to HTML; a formula KaTeX cannot read gives its error instead of throwing. */
@@ -44,14 +43,4 @@ export function KatexFormula({
   }
   const Tag = display ? 'div' : 'span';
   return <Tag className={className} dangerouslySetInnerHTML={{ __html: html }} />;
-}
-
-/** Text with `$…$` and `$$…$$` formulas typeset in place (both inline, so a line keeps its flow). */
-export function TextWithMaths({ text }: { text: string }) {
-  const segments = useMemo(() => splitMaths(text), [text]);
-  return (
-    <>
-      {segments.map((s, i) => (s.kind === 'text' ? <span key={i}>{s.text}</span> : <KatexFormula key={i} latex={s.latex} />))}
-    </>
-  );
 }
