@@ -63,7 +63,23 @@ describe('audit details', () => {
   it('reads numbers, sizes, times and empty lists in words', () => {
     const d = auditDetails(event({ entityId: null, notebookId: null, summary: { elapsedMs: 1534, byteSize: 2048, mentions: [], blockIndex: 0 } }));
     expect(d.subject).toBeUndefined();
-    expect(d.lines.map((l) => `${l.label}: ${l.values.map((v) => v.text).join(' → ')}`)).toEqual(['time: 1.5 s', 'size: 2.0 kB', 'mentions: none', 'block: 1']);
+    expect(d.lines.map((l) => `${l.label}: ${l.values.map((v) => v.text).join(' → ')}`)).toEqual(['time: 1.5 s', 'size: 2.0 kB', 'block: 1']);
+  });
+
+  it('reads a membership change as the person it was about', () => {
+    const PERSON = '66666666-6666-4666-8666-666666666666';
+    const d = auditDetails(
+      event({
+        action: 'membership.added',
+        entityType: 'membership',
+        entityId: GONE,
+        summary: { userId: PERSON, role: 'reader' },
+        references: { [NB]: { kind: 'notebook', label: 'Stirred tank', notebookId: NB }, [PERSON]: { kind: 'person', label: 'Jun Okafor' } },
+      }),
+    );
+    expect(d.subject).toEqual({ text: 'Jun Okafor', title: `membership ${GONE}` });
+    expect(d.notebook?.text).toBe('Stirred tank');
+    expect(d.lines).toEqual([{ label: 'role', values: [{ text: 'reader' }] }]);
   });
 });
 

@@ -102,8 +102,12 @@ const isRecord = (v: unknown): v is Record<string, unknown> => !!v && typeof v =
  */
 export function auditDetails(ev: AuditEvent): AuditDetails {
   const refs = ev.references;
-  const subjectRef = ev.entityId ? refs[ev.entityId.toLowerCase()] : undefined;
-  const subject = ev.entityId ? value(ev.entityId, 'entityId', refs) : undefined;
+  // A subject whose row is not resolved (a membership) reads as the person it was about.
+  const standIn = typeof ev.summary.userId === 'string' && !(ev.entityId && refs[ev.entityId.toLowerCase()]) ? ev.summary.userId : null;
+  const subjectId = standIn ?? ev.entityId;
+  const subjectRef = subjectId ? refs[subjectId.toLowerCase()] : undefined;
+  const subject = subjectId ? value(subjectId, 'entityId', refs) : undefined;
+  if (subject && standIn && ev.entityId) subject.title = `${ev.entityType} ${ev.entityId}`;
   if (subject && subjectRef?.kind === 'revision' && typeof ev.summary.entryId === 'string') {
     const entry = refs[ev.summary.entryId.toLowerCase()];
     if (entry) subject.text = `${entry.label}, ${subjectRef.label}`;
@@ -120,9 +124,14 @@ export function auditDetails(ev: AuditEvent): AuditDetails {
     if (after !== undefined) rest.after = after;
   }
   // Fields the subject already says: a revision's number, the entry of an entry's own part.
-  const said = (k: string) => (k === 'number' && subjectRef?.kind === 'revision') || (k === 'entryId' && !!subjectRef && NAMES_ITS_ENTRY.has(subjectRef.kind) && subjectRef.entryId === rest.entryId);
+  const said = (k: string) =>
+    (k === 'number' && subjectRef?.kind === 'revision') ||
+    (k === 'userId' && standIn !== null) ||
+    (k === 'entryId' && !!subjectRef && NAMES_ITS_ENTRY.has(subjectRef.kind) && subjectRef.entryId === rest.entryId);
+  // Fields recorded empty (no thread, no mentions) say nothing.
+  const empty = (v: unknown) => v === null || v === undefined || (Array.isArray(v) && v.length === 0);
   for (const [k, v] of Object.entries(rest)) {
-    if (said(k)) continue;
+    if (said(k) || empty(v)) continue;
     lines.push({ label: fieldWords(k), values: [value(v, k, refs)] });
   }
   return { subject, notebook, lines };
