@@ -81,4 +81,29 @@ describe('a first branch diagram', () => {
     expect(actions.length, actions.join(' → ')).toBeLessThanOrEqual(MAX_ACTIONS);
     expect(await seriousAxeViolations(page)).toEqual([]);
   });
+
+  it('offers Undo after a cell is removed, and Undo brings it back', async () => {
+    const branch = page.locator('[data-cell-kind="branch"]');
+    await branch.first().getByRole('button', { name: 'Cell actions' }).click();
+    await page.getByRole('menuitem', { name: 'Remove' }).click();
+    expect(await branch.count()).toBe(0);
+    await page.getByRole('status').getByRole('button', { name: 'Undo' }).click();
+    await branch.first().waitFor();
+    expect(await branch.count()).toBe(1);
+  });
+
+  it('loads an entry while the pointer rests on its link in the log', async () => {
+    const entryPath = new URL(page.url()).pathname;
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Notebooks' }).click();
+    await page.getByRole('link', { name: DEMO_NOTEBOOKS.stirredTank.title }).click();
+    const link = page.getByRole('main').getByRole('link', { name: 'Ignition and extinction along the residence time' }).first();
+    await link.waitFor();
+    const href = await link.getAttribute('href');
+    expect(href).not.toBe(entryPath);
+    // The entry's own query is fetched on hover, before any click.
+    const fetched = page.waitForResponse((r) => r.request().method() === 'GET' && new URL(r.url()).pathname === `/api${href}`, { timeout: 5000 });
+    await link.hover();
+    expect((await fetched).status()).toBe(200);
+    expect(new URL(page.url()).pathname).not.toBe(href);
+  });
 });
