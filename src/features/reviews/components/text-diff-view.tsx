@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { collapseUnchanged, describeUnchanged, type BlockDiff, type DiffPart } from '@shared/diff/text-diff.ts';
 import { latexToText, mathsAsText, splitMaths } from '@shared/editor/inline-maths.ts';
 import { Badge } from '@/components/ui/badge.tsx';
@@ -20,7 +20,21 @@ function PartContent({ part, display }: { part: DiffPart; display: boolean }) {
     </span>
   );
   if (display) return part.text === '' ? null : formula(part.text, 0, true);
-  return <>{splitMaths(part.text).map((s, i) => (s.kind === 'text' ? <span key={i}>{s.text}</span> : formula(s.latex, i, false)))}</>;
+  // Punctuation right after a formula stays on its line (a line may otherwise break after KaTeX's box).
+  const segments = splitMaths(part.text);
+  const out: ReactNode[] = [];
+  segments.forEach((s, i) => {
+    if (s.kind === 'maths') {
+      // (glued to the text after it, below, when there is some)
+      if (segments[i + 1]?.kind !== 'text') out.push(formula(s.latex, i, false));
+      return;
+    }
+    const prev = segments[i - 1];
+    const glued = prev?.kind === 'maths' ? (/^[,.;:!?)\]]+/.exec(s.text)?.[0] ?? '') : '';
+    if (prev?.kind === 'maths') out.push(<span key={`m${i}`} className="whitespace-nowrap">{formula(prev.latex, i - 1, false)}{glued}</span>);
+    out.push(<span key={i}>{s.text.slice(glued.length)}</span>);
+  });
+  return <>{out}</>;
 }
 
 /** A block's text for labels: formulas as readable words, removed words left out. */
