@@ -1,10 +1,13 @@
-import type { AuditEvent } from '@shared/api/audit.ts';
+import type { AuditEvent, AuditReference } from '@shared/api/audit.ts';
 import type { AuditEventEntity } from '@server/entities/audit-event.entity.ts';
 
 /** An audit row with its actor's name (null when the actor is unknown or the event had none). */
 export type AuditEventWithActor = AuditEventEntity & { actorName: string | null };
 
-export function presentAuditEvent(e: AuditEventWithActor): AuditEvent {
+/** An audit row with its actor's name and its ids in words (see resolve-audit-references.ts). */
+export type AuditEventWithReferences = AuditEventWithActor & { references: Record<string, AuditReference> };
+
+export function presentAuditEvent(e: AuditEventWithReferences): AuditEvent {
   return {
     sequence: e.seq,
     occurredAt: e.occurredAt.toISOString(),
@@ -16,5 +19,6 @@ export function presentAuditEvent(e: AuditEventWithActor): AuditEvent {
     summary: e.summary,
     hash: e.hash,
     prevHash: e.prevHash,
+    references: e.references,
   };
 }

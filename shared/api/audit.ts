@@ -44,6 +44,24 @@ export const auditQuerySchema = z.object({
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
 export type AuditQueryInput = z.input<typeof auditQuerySchema>;
 
+/** What a reference in an audit event names. */
+export const AUDIT_REFERENCE_KINDS = ['notebook', 'entry', 'revision', 'person', 'cell', 'review', 'attachment', 'comment'] as const;
+export type AuditReferenceKind = (typeof AUDIT_REFERENCE_KINDS)[number];
+
+/**
+ * An id in an event (its subject, notebook, or an id in its summary) resolved to words when the
+ * list was read: the notebook's name, the entry's title, "revision 4", the person's name, the
+ * cell's kind and name. `notebookId` and `entryId` say where it leads in the app; a reference
+ * whose row is gone is simply absent (the id then shows as it is).
+ */
+export const auditReferenceSchema = z.object({
+  kind: z.enum(AUDIT_REFERENCE_KINDS),
+  label: z.string(),
+  notebookId: z.uuid().optional(),
+  entryId: z.uuid().optional(),
+});
+export type AuditReference = z.infer<typeof auditReferenceSchema>;
+
 export const auditEventSchema = z.object({
   /** Position in the chain (a decimal string: it is a bigint). */
   sequence: z.string(),
@@ -57,6 +75,8 @@ export const auditEventSchema = z.object({
   summary: z.record(z.string(), z.unknown()),
   hash: z.string(),
   prevHash: z.string(),
+  /** The event's ids in words, keyed by id (subject, notebook, summary values). */
+  references: z.record(z.string(), auditReferenceSchema),
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 

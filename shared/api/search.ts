@@ -52,8 +52,12 @@ export const searchQuerySchema = z
 export type SearchQuery = z.output<typeof searchQuerySchema>;
 export type SearchQueryInput = z.input<typeof searchQuerySchema>;
 
-/** A piece of a snippet; `hit` marks the words that matched. Render as text, never as HTML. */
-export const snippetPartSchema = z.object({ text: z.string(), hit: z.boolean() });
+/**
+ * A piece of a snippet; `hit` marks the words that matched. Render as text, never as HTML. With
+ * `maths`, `text` is a whole formula's LaTeX to typeset (a formula cut at the snippet's edge comes
+ * as readable text instead).
+ */
+export const snippetPartSchema = z.object({ text: z.string(), hit: z.boolean(), maths: z.boolean().optional() });
 export type SnippetPart = z.infer<typeof snippetPartSchema>;
 
 export const searchHitSchema = z.object({

@@ -1,6 +1,7 @@
 import { diffArrays } from 'diff';
 import { CELL_KIND_LABELS, type CellKind } from '../cells/kinds.ts';
 import { nodeAttrSchemas, type DocNode, type DocumentJson } from '../editor/document.ts';
+import { MATHS_SOURCE } from '../editor/inline-maths.ts';
 
 /**
  * A word-level comparison of two entry documents, block by block.
@@ -10,8 +11,10 @@ import { nodeAttrSchemas, type DocNode, type DocumentJson } from '../editor/docu
  * 2. The two block lists are aligned by their text (longest common subsequence, `diffArrays`).
  * 3. Within a run of removed blocks followed by added blocks, blocks of the same type are paired
  *    and compared word by word when they share enough words; the rest stay whole insertions or
- *    deletions. Words are tokenised so that a number ("0.2471", "-1e-3") is one token: a changed
- *    value is shown whole, not as a changed run of digits.
+ *    deletions. Words are tokenised so that a number ("0.2471", "-1e-3") and an inline formula
+ *    ("$k e^{x}$") are one token each: a changed value or formula is shown whole (the old one
+ *    removed, the new one added), never as a changed run of digits or LaTeX. A changed displayed
+ *    equation is likewise the old equation removed and the new one added.
  *
  * Cells take part as placeholders ("Model cell “Stirred tank”"); their inputs and results are
  * compared by `cell-input-diff.ts` and `result-diff.ts`.
@@ -144,7 +147,7 @@ export function sharedWordShare(a: string, b: string): number {
   return shared / Math.max(wa.length, wb.length);
 }
 
-const TOKEN = /\s+|[-+]?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?|[\p{L}\p{N}_]+|[^\s]/gu;
+const TOKEN = new RegExp(String.raw`${MATHS_SOURCE}|\s+|[-+]?\d+(?:\.\d+)?(?:[eE][-+]?\d+)?|[\p{L}\p{N}_]+|[^\s]`, 'gu');
 
 /** Word-level parts: kept, removed and added runs of words, numbers, spaces and marks. */
 export function wordParts(oldText: string, newText: string): DiffPart[] {
@@ -158,6 +161,13 @@ export function wordParts(oldText: string, newText: string): DiffPart[] {
     else parts.push({ kind, text });
   }
   return parts;
+}
+
+/** The parts of a changed block: words for text, the whole old and new equation for displayed maths. */
+function changedParts(type: TextBlockType, oldText: string, newText: string): DiffPart[] {
+  if (oldText === newText) return [{ kind: 'same', text: newText }];
+  if (type === 'maths') return [{ kind: 'removed', text: oldText }, { kind: 'added', text: newText }].filter((p) => p.text !== '') as DiffPart[];
+  return wordParts(oldText, newText);
 }
 
 /** Compare two documents block by block, with word-level changes inside changed blocks. */
@@ -183,7 +193,7 @@ export function diffDocuments(older: DocumentJson, newer: DocumentJson): BlockDi
       for (let n = 0; n < c.count; n++) {
         const [ob, nb] = [a[i + n], b[j + n]];
         // A cell keeps its key when renamed: its placeholder text still changed.
-        if (ob.text !== nb.text) out.push({ status: 'changed', type: nb.type, prefix: nb.prefix, parts: wordParts(ob.text, nb.text), newIndex: j + n, oldIndex: i + n, cellId: nb.cellId });
+        if (ob.text !== nb.text) out.push({ status: 'changed', type: nb.type, prefix: nb.prefix, parts: changedParts(nb.type, ob.text, nb.text), newIndex: j + n, oldIndex: i + n, cellId: nb.cellId });
         else out.push(whole(nb, 'same', j + n, i + n));
       }
       i += c.count;
@@ -243,7 +253,7 @@ function pairRun(
       status: 'changed',
       type: nb.type,
       prefix: nb.prefix,
-      parts: ob.text === nb.text ? [{ kind: 'same', text: nb.text }] : wordParts(ob.text, nb.text),
+      parts: changedParts(nb.type, ob.text, nb.text),
       newIndex: ai,
       oldIndex: removed[match],
       cellId: nb.cellId,

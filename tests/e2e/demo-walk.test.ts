@@ -110,7 +110,9 @@ const auditPage: Screen = {
   visit: async (page) => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'My activity' }).click();
     await page.getByRole('main').getByRole('heading', { level: 1 }).first().waitFor();
-    await page.getByRole('main').getByRole('table').or(page.getByRole('main').getByText(/no events|nothing/i)).first().waitFor();
+    // (the table itself, or the empty state: the page's description also says "nothing")
+    await page.getByRole('main').getByRole('table').or(page.getByRole('main').getByText('Nothing recorded')).first().waitFor();
+    await settle(page);
   },
 };
 

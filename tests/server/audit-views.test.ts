@@ -74,6 +74,22 @@ describe('audit views API', () => {
     }
   });
 
+  it('gives each event’s ids in words: entry title, notebook name, revision number, people and cells', async () => {
+    const page = auditPageSchema.parse((await ines.get(`/api/audit?entryId=${entryId}`)).body);
+    const [newest] = page.events;
+    expect(newest.references[newest.entityId!]).toEqual({ kind: 'revision', label: 'revision 3', notebookId: tank, entryId });
+    expect(newest.references[entryId]).toEqual({ kind: 'entry', label: 'Audit views, "quoted", comma', notebookId: tank, entryId });
+    expect(newest.references[tank]).toMatchObject({ kind: 'notebook', label: 'Stirred-tank ignition and extinction' });
+
+    const members = auditPageSchema.parse((await ines.get(`/api/audit?notebookId=${tank}&action=membership`)).body);
+    const added = members.events.find((e) => typeof e.summary.userId === 'string');
+    expect(added, 'the demo notebook’s trail has membership events').toBeDefined();
+    expect(added!.references[added!.summary.userId as string]).toMatchObject({ kind: 'person', label: expect.stringMatching(/\w+ \w+/) });
+
+    const runs = auditPageSchema.parse((await ines.get(`/api/audit?notebookId=${tank}&action=cell.run&pageSize=5`)).body);
+    for (const run of runs.events) expect(run.references[run.entityId!]).toMatchObject({ kind: 'cell', label: expect.stringMatching(/ cell/) });
+  });
+
   it('refuses the notebook’s researcher and reader (403) and a non-member (404)', async () => {
     expect((await kofi.get(`/api/audit?notebookId=${tank}`)).status).toBe(403);
     expect((await jun.get(`/api/audit?entryId=${entryId}`)).status).toBe(403);

@@ -115,7 +115,8 @@ describe('figures API', () => {
     expect(res.status).toBe(201);
     const [row] = (await logServer().dataSource.query('SELECT spec FROM figure WHERE id = $1', [res.body.id])) as { spec: { layer: { data: { values: Record<string, number>[] } }[] } }[];
     const measured = row.spec.layer.flatMap((l) => l.data.values).filter((v) => 'low' in v);
-    const point = measured.find((v) => v.parameter === 0.25);
+    // (the shared branch spec names the parameter field "mu")
+    const point = measured.find((v) => v.mu === 0.25);
     expect(point?.y).toBe(0.52);
     expect(point?.low).toBeCloseTo(0.47, 12);
     expect(point?.high).toBeCloseTo(0.57, 12);

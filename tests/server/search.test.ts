@@ -137,4 +137,21 @@ describe('search snippets', () => {
       { text: 'μ', hit: true },
     ]);
   });
+
+  it('leaves out heading marks', () => {
+    expect(snippetParts('tank ## Aim Follow the \u0002ignition\u0003')).toEqual([
+      { text: 'tank Aim Follow the ', hit: false },
+      { text: 'ignition', hit: true },
+    ]);
+  });
+
+  it('gives whole formulas as maths parts (a hit inside flags the formula) and a formula cut at an edge as words', () => {
+    expect(snippetParts('{1}{\\tau}$ is the \u0002residence\u0003 time … the rate $k e^{-\u0002E\u0003/RT}$ grows $\\frac{a}{')).toEqual([
+      { text: '1/τ is the ', hit: false },
+      { text: 'residence', hit: true },
+      { text: ' time … the rate ', hit: false },
+      { text: 'k e^{-E/RT}', hit: true, maths: true },
+      { text: ' grows a/', hit: false },
+    ]);
+  });
 });

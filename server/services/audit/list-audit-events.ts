@@ -4,8 +4,9 @@ import { AuditEventEntity } from '@server/entities/audit-event.entity.ts';
 import { EntryEntity } from '@server/entities/entry.entity.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
 import { ForbiddenError, NotFoundError, ValidationError } from '@server/errors/index.ts';
-import type { AuditEventWithActor } from '@server/presenters/audit-event.presenter.ts';
+import type { AuditEventWithActor, AuditEventWithReferences } from '@server/presenters/audit-event.presenter.ts';
 import { notebookRoleOf } from '@server/services/entries/notebook-role.ts';
+import { referencesOf, resolveAuditReferences } from './resolve-audit-references.ts';
 
 export type AuditFilter = Omit<AuditQuery, 'page' | 'pageSize' | 'format'>;
 
@@ -69,12 +70,16 @@ export async function fetchWithActor(qb: SelectQueryBuilder<AuditEventEntity>): 
   return entities.map((e, i) => Object.assign(e, { actorName: raw[i]?.actor_name ?? null }));
 }
 
-/** One page of matching events, newest first, and the total count. */
+/**
+ * One page of matching events, newest first, and the total count; each event with its ids in
+ * words (entry titles, notebook names, people's names, revision numbers, cell names), resolved
+ * for the whole page at once.
+ */
 export async function listAuditEvents(
   manager: EntityManager,
   filter: AuditFilter,
   page: { page: number; pageSize: number },
-): Promise<{ events: AuditEventWithActor[]; total: number }> {
+): Promise<{ events: AuditEventWithReferences[]; total: number }> {
   const total = await auditQueryBuilder(manager, filter).getCount();
   const events = await fetchWithActor(
     auditQueryBuilder(manager, filter)
@@ -82,5 +87,6 @@ export async function listAuditEvents(
       .offset((page.page - 1) * page.pageSize)
       .limit(page.pageSize),
   );
-  return { events, total };
+  const references = await resolveAuditReferences(manager, events);
+  return { events: events.map((e) => Object.assign(e, { references: referencesOf(e, references) })), total };
 }

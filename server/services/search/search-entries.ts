@@ -1,22 +1,51 @@
 import type { SearchEventKind, SearchHit, SearchQuery, SnippetPart } from '@shared/api/search.ts';
+import { splitMathsFragment } from '@shared/editor/inline-maths.ts';
 import type { ActingContext } from '@server/services/entries/service-context.ts';
 
 /** Markers ts_headline puts around matched words; control characters never found in the indexed text. */
 const START = '\u0002';
 const STOP = '\u0003';
+/** Between the fragments of one snippet. */
+const FRAGMENT_DELIMITER = ' … ';
 
-/** Splits a ts_headline result into plain-text parts, matched words flagged. */
-export function snippetParts(headline: string): SnippetPart[] {
+/** Plain-text parts of marked text, matched words flagged. */
+function markedParts(text: string): SnippetPart[] {
   const parts: SnippetPart[] = [];
   const re = new RegExp(`${START}([^${STOP}]*)${STOP}`, 'g');
   let last = 0;
-  for (const m of headline.matchAll(re)) {
-    if (m.index > last) parts.push({ text: headline.slice(last, m.index), hit: false });
+  for (const m of text.matchAll(re)) {
+    if (m.index > last) parts.push({ text: text.slice(last, m.index), hit: false });
     parts.push({ text: m[1], hit: true });
     last = m.index + m[0].length;
   }
-  if (last < headline.length) parts.push({ text: headline.slice(last), hit: false });
-  return parts.filter((p) => p.text !== '');
+  if (last < text.length) parts.push({ text: text.slice(last), hit: false });
+  return parts.map((p) => ({ ...p, text: p.text.replaceAll(START, '').replaceAll(STOP, '') }));
+}
+
+/**
+ * Splits a ts_headline result (or the start of the search text) into parts: matched words flagged,
+ * whole formulas as `maths` parts (a hit inside one flags the formula), a formula cut at a
+ * fragment's edge as readable text, never as half of its LaTeX.
+ */
+export function snippetParts(headline: string): SnippetPart[] {
+  const parts: SnippetPart[] = [];
+  headline.split(FRAGMENT_DELIMITER).forEach((fragment, i) => {
+    if (i > 0) parts.push({ text: FRAGMENT_DELIMITER, hit: false });
+    for (const segment of splitMathsFragment(fragment)) {
+      // Heading marks of the plain text ("## Aim") say nothing in a one-line snippet.
+      if (segment.kind === 'text') parts.push(...markedParts(segment.text.replace(/(^|\s)#{1,6}(?= )/g, '$1').replace(/ {2,}/g, ' ')));
+      else parts.push({ text: segment.latex.replaceAll(START, '').replaceAll(STOP, ''), hit: segment.latex.includes(START), maths: true });
+    }
+  });
+  // Neighbouring plain parts of the same kind read as one.
+  const merged: SnippetPart[] = [];
+  for (const p of parts) {
+    const last = merged[merged.length - 1];
+    if (p.text === '') continue;
+    if (last && !last.maths && !p.maths && last.hit === p.hit) last.text += p.text;
+    else merged.push({ ...p });
+  }
+  return merged;
 }
 
 interface Row {
@@ -83,7 +112,7 @@ export async function searchEntries(ctx: ActingContext, query: SearchQuery): Pro
 
   const rank = tsq ? `ts_rank(e.search_vector, ${tsq})` : '0';
   const headline = tsq
-    ? `ts_headline('english', e.search_text, ${tsq}, 'StartSel=${START}, StopSel=${STOP}, MaxWords=30, MinWords=12, MaxFragments=2, FragmentDelimiter=" … "')`
+    ? `ts_headline('english', e.search_text, ${tsq}, 'StartSel=${START}, StopSel=${STOP}, MaxWords=30, MinWords=12, MaxFragments=2, FragmentDelimiter="${FRAGMENT_DELIMITER}"')`
     : `left(e.search_text, 200)`;
   const limit = arg(query.limit);
   const sql = `
@@ -111,7 +140,7 @@ export async function searchEntries(ctx: ActingContext, query: SearchQuery): Pro
     status: r.status,
     author: { id: r.author_id, name: r.author_name },
     rank: r.rank,
-    snippet: tsq ? snippetParts(r.headline) : [{ text: r.headline, hit: false }],
+    snippet: snippetParts(r.headline),
     events: r.events ?? [],
   }));
 }

@@ -2,7 +2,9 @@ import { useSyncExternalStore } from 'react';
 import { cn } from './cn.ts';
 
 export type ToastTone = 'info' | 'success' | 'error';
-export type Toast = { id: number; tone: ToastTone; title: string; message?: string };
+/** A toast may offer one action (Undo, Run again); taking it dismisses the toast. */
+export type ToastAction = { label: string; onClick: () => void };
+export type Toast = { id: number; tone: ToastTone; title: string; message?: string; action?: ToastAction };
 
 let toasts: Toast[] = [];
 let nextId = 1;
@@ -20,6 +22,8 @@ export const toast = {
   },
   success: (title: string, message?: string) => toast.show({ tone: 'success', title, message }),
   error: (title: string, message?: string) => toast.show({ tone: 'error', title, message }, 10_000),
+  /** Says what just happened and offers to take it back (kept on screen a little longer). */
+  undoable: (title: string, undo: () => void, label = 'Undo') => toast.show({ tone: 'info', title, action: { label, onClick: undo } }, 10_000),
   dismiss(id: number) {
     toasts = toasts.filter((t) => t.id !== id);
     emit();
@@ -63,6 +67,18 @@ export function Toaster() {
               <p className="text-sm font-semibold">{t.title}</p>
               {t.message && <p className="mt-0.5 text-sm text-ink-muted">{t.message}</p>}
             </div>
+            {t.action && (
+              <button
+                type="button"
+                onClick={() => {
+                  toast.dismiss(t.id);
+                  t.action?.onClick();
+                }}
+                className="min-h-6 rounded-sm px-2 text-sm font-semibold text-accent hover:bg-accent-soft"
+              >
+                {t.action.label}
+              </button>
+            )}
             <button
               type="button"
               onClick={() => toast.dismiss(t.id)}

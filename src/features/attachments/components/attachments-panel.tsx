@@ -1,6 +1,7 @@
 import { useId, useRef, useState, type DragEvent } from 'react';
 import { ATTACHMENT_ACCEPT, INLINE_IMAGE_TYPES, type Attachment } from '@shared/api/attachments.ts';
 import { Button } from '@/components/ui/button.tsx';
+import { ConfirmButton } from '@/components/ui/dialog.tsx';
 import { formatDateTime } from '@/lib/format.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { useAttachments } from '../api/get-attachments.ts';
@@ -166,9 +167,19 @@ function AttachmentRow(props: { a: Attachment; canWrite: boolean; onPlaceImage?:
           </Button>
         )}
         {props.canWrite && (
-          <Button variant="quiet" size="sm" aria-label={`Remove ${a.name}`} onClick={props.onRemove}>
-            Remove
-          </Button>
+          <ConfirmButton
+            label="Remove"
+            accessibleLabel={`Remove ${a.name}`}
+            variant="quiet"
+            title={`Remove ${a.name}?`}
+            description="It leaves this entry's files and can no longer be downloaded from here; the audit trail keeps its name and hash."
+            keepLabel="Keep it"
+            confirmLabel="Remove"
+            onConfirm={(close) => {
+              close();
+              props.onRemove();
+            }}
+          />
         )}
       </div>
     </li>

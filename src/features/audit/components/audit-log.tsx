@@ -4,10 +4,11 @@ import { buttonClass, Button } from '@/components/ui/button.tsx';
 import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { Input, Select } from '@/components/ui/input.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
-import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
+import { SkeletonRows } from '@/components/ui/skeleton.tsx';
 import { ApiError } from '@/lib/api-error.ts';
 import { formatDateTime } from '@/lib/format.ts';
 import { auditCsvHref, useAudit } from '../api/get-audit.ts';
+import { AuditDetailsView } from './audit-details.tsx';
 
 /** Kinds of action a filter can pick, by prefix (the server matches "review" to every "review.…"). */
 export const AUDIT_ACTION_GROUPS: { value: string; label: string }[] = [
@@ -29,28 +30,6 @@ export const AUDIT_ACTION_GROUPS: { value: string; label: string }[] = [
 export function actionWords(action: string): string {
   const [group, verb] = action.split('.');
   return verb ? `${group}: ${verb.replace(/_/g, ' ')}` : action.replace(/_/g, ' ');
-}
-
-const show = (v: unknown): string => (typeof v === 'string' ? v : v === null || v === undefined ? '—' : JSON.stringify(v));
-const isRecord = (v: unknown): v is Record<string, unknown> => !!v && typeof v === 'object' && !Array.isArray(v);
-
-/**
- * A one-line reading of the recorded summary: a change as "status: in-review → approved", then
- * the other recorded fields as "name: value".
- */
-export function summaryWords(summary: Record<string, unknown>): string {
-  const parts: string[] = [];
-  const { before, after, ...rest } = summary;
-  if (isRecord(before) || isRecord(after)) {
-    const b = isRecord(before) ? before : {};
-    const a = isRecord(after) ? after : {};
-    for (const k of [...new Set([...Object.keys(b), ...Object.keys(a)])]) parts.push(`${k}: ${show(b[k])} → ${show(a[k])}`);
-  } else {
-    if (before !== undefined) rest.before = before;
-    if (after !== undefined) rest.after = after;
-  }
-  for (const [k, v] of Object.entries(rest)) parts.push(`${k}: ${show(v)}`);
-  return parts.join(' · ');
 }
 
 export interface AuditScope {
@@ -85,7 +64,10 @@ export function AuditLog({ scope }: { scope: AuditScope }) {
   };
   const people = new Map<string, string>();
   for (const ev of audit.data?.events ?? []) if (ev.actor) people.set(ev.actor.id, ev.actor.name);
-  if (filters.actorId && !people.has(filters.actorId)) people.set(filters.actorId, 'The chosen person');
+  if (filters.actorId && !people.has(filters.actorId)) {
+    const named = audit.data?.events.map((ev) => ev.references[filters.actorId]).find(Boolean);
+    people.set(filters.actorId, named?.label ?? 'The chosen person');
+  }
   const total = audit.data?.total ?? 0;
   const pages = Math.max(1, Math.ceil(total / AUDIT_LIMITS.pageSizeDefault));
   const fieldError = audit.error instanceof ApiError ? audit.error : null;
@@ -123,7 +105,7 @@ export function AuditLog({ scope }: { scope: AuditScope }) {
           Download CSV
         </a>
       </form>
-      {audit.isPending && <SkeletonBlock lines={6} label="Loading the audit trail" />}
+      {audit.isPending && <SkeletonRows rows={8} rowHeight="h-14" header label="Loading the audit trail" />}
       {audit.isError && <QueryError error={audit.error} what={fieldError?.fields.length ? `the audit trail (${fieldError.fields.map((f) => f.message).join('; ')})` : 'the audit trail'} />}
       {audit.data && audit.data.events.length === 0 && <EmptyState title="Nothing recorded">No recorded action matches these filters.</EmptyState>}
       {audit.data && audit.data.events.length > 0 && (
@@ -147,7 +129,9 @@ export function AuditLog({ scope }: { scope: AuditScope }) {
                     <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(ev.occurredAt)}</td>
                     <td className="px-3 py-2">{ev.actor?.name ?? 'System'}</td>
                     <td className="px-3 py-2 whitespace-nowrap">{actionWords(ev.action)}</td>
-                    <td className="max-w-md px-3 py-2 text-xs break-words text-ink-muted">{summaryWords(ev.summary)}</td>
+                    <td className="max-w-md px-3 py-2 break-words">
+                      <AuditDetailsView event={ev} />
+                    </td>
                   </tr>
                 ))}
               </tbody>

@@ -1,8 +1,8 @@
 import type { FieldProblem } from '@shared/cells/inputs.ts';
 import { resultFor, type CellOutputs } from '@shared/cells/output.ts';
 import type { DocumentCell } from '@shared/editor/document.ts';
-import { NORM_AXIS } from '../plots/branch-diagram-spec.ts';
-import { formatNumber } from '../plots/plot-palette.ts';
+import { NORM_AXIS } from '@shared/plots/branch-diagram-spec.ts';
+import { formatNumber } from '@shared/plots/plot-style.ts';
 import { problemAt } from './field-problems.ts';
 import { IntervalsRow, NumberField, SmallField, SmallSelect, ValuesRow } from './form-parts.tsx';
 import type { ModelSummary } from './model-ref.ts';

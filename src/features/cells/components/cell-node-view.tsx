@@ -1,12 +1,14 @@
 import { NodeViewWrapper, type ReactNodeViewProps } from '@tiptap/react';
-import { useEffect, useMemo, useState } from 'react';
+import { useMemo, useState } from 'react';
 import { CELL_KIND_LABELS, isAnalysisKind, type CellKind } from '@shared/cells/kinds.ts';
 import { resultFor, type CellOutput } from '@shared/cells/output.ts';
 import type { Freshness } from '@shared/cells/resolve.ts';
 import { Badge, type BadgeTone } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
 import { cn } from '@/components/ui/cn.ts';
-import { NORM_AXIS } from '../plots/branch-diagram-spec.ts';
+import { formatSeconds, useElapsed } from '@/components/ui/elapsed-progress.tsx';
+import { toast } from '@/components/ui/toast.tsx';
+import { NORM_AXIS } from '@shared/plots/branch-diagram-spec.ts';
 import { useCellsRuntime } from '../runtime/cells-context.tsx';
 import { BranchForm, EquilibriaForm, FoldMapForm, TrajectoryForm } from './analysis-forms.tsx';
 import { CellErrorBoundary } from './cell-error-boundary.tsx';
@@ -17,20 +19,6 @@ import { modelSummaries } from './model-ref.ts';
 
 type Row = Record<string, unknown>;
 const obj = (v: unknown): Row => (v && typeof v === 'object' && !Array.isArray(v) ? (v as Row) : {});
-
-function useElapsed(startedAt: number | undefined): number {
-  const [now, setNow] = useState(() => Date.now());
-  useEffect(() => {
-    if (startedAt === undefined) return;
-    const t = setInterval(() => setNow(Date.now()), 200);
-    return () => clearInterval(t);
-  }, [startedAt]);
-  return startedAt === undefined ? 0 : Math.max(0, now - startedAt);
-}
-
-function formatSeconds(ms: number): string {
-  return ms < 10_000 ? `${(ms / 1000).toFixed(1)} s` : `${Math.round(ms / 1000)} s`;
-}
 
 type Status = { label: string; tone: BadgeTone };
 function statusOf(
@@ -238,7 +226,14 @@ export function CellNodeView({
           {analysis &&
             editable &&
             (run ? (
-              <Button size="sm" variant="danger" onClick={() => rt.cancel(id)}>
+              <Button
+                size="sm"
+                variant="danger"
+                onClick={() => {
+                  rt.cancel(id);
+                  toast.undoable(`${CELL_KIND_LABELS[kind] ?? 'Cell'} run cancelled`, () => rt.run(id), 'Run again');
+                }}
+              >
                 Cancel
               </Button>
             ) : (
@@ -254,9 +249,14 @@ export function CellNodeView({
             ))}
           {editable && (
             <CellMenu
-              onMove={(d) => editor.commands.moveCell(pos(), d)}
+              onMove={(d) => {
+                if (editor.commands.moveCell(pos(), d)) toast.undoable(`Cell moved ${d}`, () => editor.commands.undo());
+              }}
               onDuplicate={() => editor.commands.duplicateCell(pos())}
-              onRemove={deleteNode}
+              onRemove={() => {
+                deleteNode();
+                toast.undoable(`${CELL_KIND_LABELS[kind] ?? 'Cell'} cell removed`, () => editor.commands.undo());
+              }}
             />
           )}
         </div>

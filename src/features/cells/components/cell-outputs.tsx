@@ -8,10 +8,11 @@ import type {
 } from '@shared/engine/contract.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { cn } from '@/components/ui/cn.ts';
-import { branchDiagramSpec, EVENT_NAMES, NORM_AXIS } from '../plots/branch-diagram-spec.ts';
-import { foldMapSpec } from '../plots/fold-map-spec.ts';
-import { formatEigenvalues, formatNumber, readPlotPalette } from '../plots/plot-palette.ts';
-import { phasePlaneSpec, timeSeriesSpec } from '../plots/trajectory-spec.ts';
+import { branchDiagramSpec, EVENT_NAMES, NORM_AXIS } from '@shared/plots/branch-diagram-spec.ts';
+import { foldMapSpec } from '@shared/plots/fold-map-spec.ts';
+import { formatEigenvalues, formatNumber } from '@shared/plots/plot-style.ts';
+import { readPlotPalette } from '@/lib/plot-palette.ts';
+import { phasePlaneSpec, timeSeriesSpec } from '@shared/plots/trajectory-spec.ts';
 import { LazyPlot } from './lazy-plot.tsx';
 
 const STOP_REASON_TEXT: Record<string, string> = {
@@ -188,7 +189,7 @@ export function BranchOutput({
                   <td className={td}>
                     <button
                       type="button"
-                      className="font-medium text-accent underline-offset-2 hover:underline"
+                      className="inline-flex min-h-6 items-center font-medium text-accent underline-offset-2 hover:underline"
                       onClick={() => select(i)}
                     >
                       {EVENT_NAMES[e.kind]}

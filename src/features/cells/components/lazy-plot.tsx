@@ -38,7 +38,7 @@ export function LazyPlot({
     io.observe(el);
     return () => io.disconnect();
   }, [visible]);
-  const placeholder = <Skeleton className="w-full" />;
+  const placeholder = <Skeleton className="h-full w-full" />;
   return (
     <div ref={ref} className="w-full" style={{ minHeight: height + 40 }} data-testid="plot">
       {visible ? (

@@ -7,9 +7,10 @@ import {
 } from '@shared/cells/inputs.ts';
 import { cn } from '@/components/ui/cn.ts';
 import { controlClass } from '@/components/ui/input.tsx';
-import { KatexBlock } from './katex-block.tsx';
+import { KatexFormula } from '@/components/ui/katex-formula.tsx';
 import { expressionTex, symbolTex } from './expression-tex.ts';
 import { problemAt } from './field-problems.ts';
+import { isBlankModel, MODEL_EXAMPLES } from './model-examples.ts';
 import { NumberInput } from './number-input.tsx';
 import { useCellsRuntime } from '../runtime/cells-context.tsx';
 
@@ -57,8 +58,31 @@ function EquationsPreview({ input }: { input: Row }) {
     );
   return (
     <div className="py-2" data-testid="model-equations">
-      <KatexBlock latex={tex} />
-      {params && <KatexBlock latex={params} className="mt-1 text-sm text-ink-muted" />}
+      <KatexFormula latex={tex} display />
+      {params && <KatexFormula latex={params} display className="mt-1 text-sm text-ink-muted" />}
+    </div>
+  );
+}
+
+/** The empty model's offer: write the equations below, or start from a small working example in one click. */
+function ExamplePicker({ onPick }: { onPick: (input: Row) => void }) {
+  return (
+    <div className="rounded-md border border-dashed border-rule-strong bg-paper px-4 py-3" role="group" aria-label="Start from an example">
+      <p className="text-sm text-ink">Write the equations below, or start from an example and change it:</p>
+      <div className="mt-2 flex flex-wrap gap-2">
+        {MODEL_EXAMPLES.map((ex) => (
+          <button
+            key={ex.key}
+            type="button"
+            title={ex.description}
+            onClick={() => onPick(ex.input as Row)}
+            className="rounded-md border border-accent/40 bg-surface px-3 py-1.5 text-left text-sm hover:bg-accent-soft focus-visible:outline-2 focus-visible:outline-accent"
+          >
+            <span className="block font-medium text-accent">{ex.label}</span>
+            <span className="block text-xs text-ink-muted">{ex.description}</span>
+          </button>
+        ))}
+      </div>
     </div>
   );
 }
@@ -119,7 +143,7 @@ function SectionHead({ title, onAdd, addLabel }: { title: string; onAdd?: () => 
         <button
           type="button"
           onClick={onAdd}
-          className="rounded-sm px-2 py-0.5 text-xs font-medium text-accent hover:bg-accent-soft"
+          className="inline-flex min-h-6 items-center rounded-sm px-2 text-xs font-medium text-accent hover:bg-accent-soft"
         >
           + {addLabel}
         </button>
@@ -181,7 +205,7 @@ export function ModelCell({
   const typed = input as ModelCellInput;
   return (
     <div>
-      <EquationsPreview input={input} />
+      {!readOnly && isBlankModel(input) ? <ExamplePicker onPick={(example) => onChange({ ...example })} /> : <EquationsPreview input={input} />}
       {!readOnly && (
         <div className="mt-2 border-t border-rule pt-3">
           <TextCell

@@ -1,7 +1,7 @@
 import { NodeViewWrapper, type NodeViewProps } from '@tiptap/react';
 import { useEffect, useRef, useState } from 'react';
 import { cn } from '@/components/ui/cn.ts';
-import { KatexFormula, renderLatex } from './katex-formula.tsx';
+import { KatexFormula, renderLatex } from '@/components/ui/katex-formula.tsx';
 
 /**
  * Node view of inline and display maths: the typeset formula; click it (when editing) to open

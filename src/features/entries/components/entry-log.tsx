@@ -15,11 +15,13 @@ import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { Field } from '@/components/ui/field.tsx';
 import { Input, Select } from '@/components/ui/input.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
-import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
+import { SkeletonRows } from '@/components/ui/skeleton.tsx';
 import { paths } from '@/config/paths.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { useCreateEntry } from '../api/create-entry.ts';
 import { useEntries } from '../api/get-entries.ts';
+import { getEntryQueryOptions } from '../api/get-entry.ts';
+import { usePrefetchOnIntent } from '@/lib/prefetch.ts';
 
 const STATUS_TONE: Record<EntryStatus, BadgeTone> = {
   draft: 'neutral',
@@ -175,6 +177,7 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
     [dq, status, dtag, from, to],
   );
   const entries = useEntries(notebookId, filters);
+  const prefetch = usePrefetchOnIntent();
   const filtered = Boolean(dq || status || dtag || from || to);
 
   return (
@@ -225,7 +228,7 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
         </label>
       </div>
       {entries.isPending ? (
-        <SkeletonBlock lines={5} label="Loading the log" />
+        <SkeletonRows rows={6} rowHeight="h-11" label="Loading the log" />
       ) : entries.isError ? (
         <QueryError error={entries.error} what="the log" onRetry={() => void entries.refetch()} />
       ) : entries.data.entries.length === 0 ? (
@@ -254,7 +257,7 @@ export function EntryLog({ notebookId, canWrite }: { notebookId: string; canWrit
                     key={e.id}
                     className="flex flex-wrap items-baseline gap-x-3 gap-y-1 rounded-md px-2 py-2 hover:bg-sunken"
                   >
-                    <Link to={paths.entry.getHref(notebookId, e.id)} className="font-serif text-lg font-bold">
+                    <Link to={paths.entry.getHref(notebookId, e.id)} {...prefetch((qc) => qc.prefetchQuery(getEntryQueryOptions(notebookId, e.id)))} className="font-serif text-lg font-bold">
                       {e.title}
                     </Link>
                     <EntryStatusBadge status={e.status} />

@@ -2,6 +2,7 @@ import type { Revision } from '@shared/api/entries.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { Button } from '@/components/ui/button.tsx';
 import { cn } from '@/components/ui/cn.ts';
+import { ConfirmButton } from '@/components/ui/dialog.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
 import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
 import { useRevision } from '../api/get-revision.ts';
@@ -100,9 +101,19 @@ export function RevisionReader({
         </span>
         <div className="ml-auto flex gap-2">
           {canRestore && r.id !== headId && (
-            <Button size="sm" busy={restoring} onClick={() => onRestore(r)}>
-              Restore as a new revision
-            </Button>
+            <ConfirmButton
+              label="Restore as a new revision"
+              variant="primary"
+              busy={restoring}
+              title={`Restore revision #${r.number}?`}
+              description="Its text and results become a new revision on top of the history (nothing recorded is lost). Changes you have not recorded yet are replaced."
+              keepLabel="Keep reading"
+              confirmLabel="Restore"
+              onConfirm={(close) => {
+                close();
+                onRestore(r);
+              }}
+            />
           )}
           <Button size="sm" variant="secondary" onClick={onClose}>
             Back to editing

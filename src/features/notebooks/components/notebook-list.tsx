@@ -5,10 +5,14 @@ import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { Skeleton } from '@/components/ui/skeleton.tsx';
 import { formatDate } from '@/lib/format.ts';
 import { useNotebooks } from '../api/get-notebooks.ts';
+import { getNotebookQueryOptions } from '../api/get-notebook.ts';
+import { getEntriesQueryOptions } from '@/features/entries/api/get-entries.ts';
+import { usePrefetchOnIntent } from '@/lib/prefetch.ts';
 import { QueryError } from '@/components/ui/query-error.tsx';
 
 export function NotebookList() {
   const notebooks = useNotebooks();
+  const prefetch = usePrefetchOnIntent();
   if (notebooks.isPending)
     return (
       <ul role="status" aria-label="Loading notebooks" className="grid gap-4 md:grid-cols-2">
@@ -38,6 +42,7 @@ export function NotebookList() {
         <li key={n.id}>
           <Link
             to={paths.notebook.getHref(n.id)}
+            {...prefetch((qc) => qc.prefetchQuery(getNotebookQueryOptions(n.id)), (qc) => qc.prefetchQuery(getEntriesQueryOptions(n.id)))}
             className="group block h-full rounded-lg border border-rule bg-surface p-5 text-ink no-underline shadow-sm transition-colors hover:border-accent hover:text-ink"
           >
             <div className="mb-2 flex items-start justify-between gap-3">

@@ -6,13 +6,13 @@ import { Dialog, DialogActions } from '@/components/ui/dialog.tsx';
 import { Field } from '@/components/ui/field.tsx';
 import { FormAlert } from '@/components/ui/form.tsx';
 import { Input, Textarea } from '@/components/ui/input.tsx';
-import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
 import { toast } from '@/components/ui/toast.tsx';
 import { ApiError } from '@/lib/api-error.ts';
 import { useApproveReview, useRequestChanges } from '../api/decide-review.ts';
 import { useReproducibility } from '../api/get-reproducibility.ts';
 import { ReproducibilityResult } from './reproducibility-result.tsx';
+import { ElapsedProgress } from '@/components/ui/elapsed-progress.tsx';
 
 interface DecisionProps {
   notebookId: string;
@@ -125,7 +125,7 @@ export function ApproveButton({ notebookId, entryId, revisionId, disabled, onDon
           </dl>
           <section aria-label="Reproducibility check">
             <h3 className="mb-1 text-sm font-medium">Reproducibility</h3>
-            {check.isPending && <SkeletonBlock lines={2} label="Rerunning every cell" />}
+            {check.isPending && <ElapsedProgress label="Rerunning every cell of this revision" />}
             {check.isError && <QueryError error={check.error} what="the reproducibility check" onRetry={() => void check.refetch()} />}
             {check.data && <ReproducibilityResult report={check.data} />}
           </section>

@@ -2,8 +2,8 @@ import { useMemo } from 'react';
 import type { AnalysisCellKind } from '@shared/cells/kinds.ts';
 import { resultFor, type CellOutput } from '@shared/cells/output.ts';
 import { LazyPlot } from '@/features/cells/components/lazy-plot.tsx';
-import { readPlotPalette } from '@/features/cells/plots/plot-palette.ts';
-import { branchOverlaySpec, foldCurveOverlaySpec, trajectoryOverlaySpec } from '../plots/overlay-spec.ts';
+import { readPlotPalette } from '@/lib/plot-palette.ts';
+import { branchOverlaySpec, foldCurveOverlaySpec, trajectoryOverlaySpec } from '@shared/plots/overlay-spec.ts';
 
 /** The plots of both revisions of one cell in one frame: the older faint, the newer strong. */
 export function OverlayPlot({

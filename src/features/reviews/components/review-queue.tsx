@@ -1,10 +1,13 @@
 import { Link } from 'react-router';
+import { getEntryQueryOptions } from '@/features/entries/api/get-entry.ts';
+import { usePrefetchOnIntent } from '@/lib/prefetch.ts';
+import { getReviewQueryOptions } from '../api/get-review.ts';
 import type { ReviewQueueItem } from '@shared/api/reviews.ts';
 import { paths } from '@/config/paths.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { EmptyState } from '@/components/ui/empty-state.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
-import { SkeletonBlock } from '@/components/ui/skeleton.tsx';
+import { SkeletonRows } from '@/components/ui/skeleton.tsx';
 import { DataTable, type Column } from '@/components/ui/table.tsx';
 import { formatDateTime } from '@/lib/format.ts';
 import { useReviewQueue } from '../api/get-review-queue.ts';
@@ -21,15 +24,24 @@ export function waitingFor(iso: string, now = Date.now()): string {
   return `${days} days`;
 }
 
+/** The entry's review page, loaded ahead when the pointer rests on the link or it takes focus. */
+function ReviewLink({ item }: { item: ReviewQueueItem }) {
+  const prefetch = usePrefetchOnIntent();
+  const { notebookId, entryId } = item.review;
+  return (
+    <Link to={paths.entryReview.getHref(notebookId, entryId)} {...prefetch((qc) => qc.prefetchQuery(getEntryQueryOptions(notebookId, entryId)), (qc) => qc.prefetchQuery(getReviewQueryOptions(notebookId, entryId)))} className="font-medium">
+      {item.entryTitle}
+    </Link>
+  );
+}
+
 const columns: Column<ReviewQueueItem>[] = [
   {
     key: 'entry',
     header: 'Entry',
     cell: (i) => (
       <span className="flex flex-col">
-        <Link to={paths.entryReview.getHref(i.review.notebookId, i.review.entryId)} className="font-medium">
-          {i.entryTitle}
-        </Link>
+        <ReviewLink item={i} />
         <span className="text-xs text-ink-muted">{i.notebookTitle}</span>
       </span>
     ),
@@ -54,7 +66,7 @@ const columns: Column<ReviewQueueItem>[] = [
 /** Entries awaiting the signed-in PI, across notebooks, oldest first. */
 export function ReviewQueue() {
   const queue = useReviewQueue();
-  if (queue.isPending) return <SkeletonBlock lines={5} label="Loading your review queue" />;
+  if (queue.isPending) return <SkeletonRows rows={4} rowHeight="h-14" header label="Loading your review queue" />;
   if (queue.isError) return <QueryError error={queue.error} what="your review queue" onRetry={() => void queue.refetch()} />;
   return (
     <DataTable

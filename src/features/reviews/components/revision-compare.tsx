@@ -4,6 +4,7 @@ import type { CommentAnchor } from '@shared/api/reviews.ts';
 import { documentBlocks } from '@shared/diff/text-diff.ts';
 import { compareRevisions } from '@shared/diff/revision-diff.ts';
 import { extractCells } from '@shared/editor/document.ts';
+import { latexToText, mathsAsText } from '@shared/editor/inline-maths.ts';
 import { cellTitle } from '@shared/diff/cell-input-diff.ts';
 import { Select } from '@/components/ui/input.tsx';
 import { QueryError } from '@/components/ui/query-error.tsx';
@@ -13,7 +14,7 @@ import { useRevision } from '@/features/entries/api/get-revision.ts';
 import { formatDateTime } from '@/lib/format.ts';
 import { CellChangeCard } from './cell-changes.tsx';
 import { SignatureBlock } from './signature-block.tsx';
-import { TextDiffView } from './text-diff-view.tsx';
+import { TextDiffView, blockLabel } from './text-diff-view.tsx';
 
 export interface ComparePreset {
   label: string;
@@ -82,7 +83,8 @@ export function useAnchorDescriber(revisions: readonly (Revision | undefined)[])
       }
       if (anchor.blockIndex !== undefined) {
         const block = r ? documentBlocks(r.document)[anchor.blockIndex] : undefined;
-        return block ? `“${block.text.slice(0, 60)}${block.text.length > 60 ? '…' : ''}”` : `Block ${anchor.blockIndex + 1}`;
+        const text = block ? (block.type === 'maths' ? latexToText(block.text) : mathsAsText(block.text)) : '';
+        return block ? `“${text.slice(0, 60)}${text.length > 60 ? '…' : ''}”` : `Block ${anchor.blockIndex + 1}`;
       }
       return 'The whole revision';
     };
@@ -129,7 +131,7 @@ export function RevisionComparison({
           onComment={
             onCommentBlock || onCommentCell
               ? (b) => {
-                  const label = b.parts.map((p) => (p.kind === 'removed' ? '' : p.text)).join('').slice(0, 60);
+                  const label = blockLabel(b).slice(0, 60);
                   if (b.cellId && onCommentCell) onCommentCell(b.cellId, `the cell “${label}”`);
                   else if (b.newIndex !== undefined && onCommentBlock) onCommentBlock(b.newIndex, `“${label}${label.length >= 60 ? '…' : ''}”`);
                 }

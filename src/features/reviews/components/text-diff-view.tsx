@@ -1,22 +1,61 @@
-import { useMemo, useState } from 'react';
-import { collapseUnchanged, describeUnchanged, type BlockDiff } from '@shared/diff/text-diff.ts';
+import { useMemo, useState, type ReactNode } from 'react';
+import { collapseUnchanged, describeUnchanged, type BlockDiff, type DiffPart } from '@shared/diff/text-diff.ts';
+import { latexToText, mathsAsText, splitMaths } from '@shared/editor/inline-maths.ts';
 import { Badge } from '@/components/ui/badge.tsx';
 import { cn } from '@/components/ui/cn.ts';
+import { KatexFormula } from '@/components/ui/katex-formula.tsx';
 
 const STATUS_WORDS: Record<BlockDiff['status'], string> = { same: '', added: 'Added', removed: 'Removed', changed: 'Changed' };
 
+/**
+ * One part of a block: its text with inline formulas typeset (a displayed equation whole).
+ * Formulas are one token in the diff, so a part never holds half of one; each formula inside an
+ * insertion or deletion carries the change as a drawn line (struck or underlined).
+ */
+function PartContent({ part, display }: { part: DiffPart; display: boolean }) {
+  const change = part.kind === 'same' ? undefined : part.kind;
+  const formula = (latex: string, key: number, isDisplay: boolean) => (
+    <span key={key} className={cn('bf-diff-maths', isDisplay && 'my-1 max-w-full overflow-x-auto')} data-change={change}>
+      <KatexFormula latex={latex} display={isDisplay} fallback={latexToText(latex)} />
+    </span>
+  );
+  if (display) return part.text === '' ? null : formula(part.text, 0, true);
+  // Punctuation right after a formula stays on its line (a line may otherwise break after KaTeX's box).
+  const segments = splitMaths(part.text);
+  const out: ReactNode[] = [];
+  segments.forEach((s, i) => {
+    if (s.kind === 'maths') {
+      // (glued to the text after it, below, when there is some)
+      if (segments[i + 1]?.kind !== 'text') out.push(formula(s.latex, i, false));
+      return;
+    }
+    const prev = segments[i - 1];
+    const glued = prev?.kind === 'maths' ? (/^[,.;:!?)\]]+/.exec(s.text)?.[0] ?? '') : '';
+    if (prev?.kind === 'maths') out.push(<span key={`m${i}`} className="whitespace-nowrap">{formula(prev.latex, i - 1, false)}{glued}</span>);
+    out.push(<span key={i}>{s.text.slice(glued.length)}</span>);
+  });
+  return <>{out}</>;
+}
+
+/** A block's text for labels: formulas as readable words, removed words left out. */
+export function blockLabel(block: BlockDiff): string {
+  const kept = block.parts.map((p) => (p.kind === 'removed' ? '' : p.text)).join('');
+  return block.type === 'maths' ? latexToText(kept) : mathsAsText(kept);
+}
+
 function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onComment?: (block: BlockDiff) => void; commentCount: number }) {
   const text = block.parts.map((p) => p.text).join('');
+  const display = block.type === 'maths';
   const body = block.parts.map((part, i) =>
     part.kind === 'same' ? (
-      <span key={i}>{part.text}</span>
+      <PartContent key={i} part={part} display={display} />
     ) : part.kind === 'added' ? (
-      <ins key={i} className="mx-px rounded-sm bg-success-soft px-px text-success underline decoration-success/60">
-        {part.text}
+      <ins key={i} className={cn('mx-px rounded-sm bg-success-soft px-px text-success underline decoration-success/60', display && 'block no-underline')}>
+        <PartContent part={part} display={display} />
       </ins>
     ) : (
-      <del key={i} className="mx-px rounded-sm bg-unstable-soft px-px text-unstable">
-        {part.text}
+      <del key={i} className={cn('mx-px rounded-sm bg-unstable-soft px-px text-unstable', display && 'block')}>
+        <PartContent part={part} display={display} />
       </del>
     ),
   );
@@ -32,7 +71,7 @@ function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onCom
       )}
       data-status={block.status}
     >
-      <div className={cn('min-w-0 flex-1 font-serif leading-relaxed', block.type === 'heading' && 'font-bold', (block.type === 'code' || block.type === 'maths') && 'font-mono text-sm', block.type === 'cell' && 'font-sans text-sm text-ink-muted italic')}>
+      <div className={cn('min-w-0 flex-1 font-serif leading-relaxed', block.type === 'heading' && 'font-bold', block.type === 'code' && 'font-mono text-sm', block.type === 'cell' && 'font-sans text-sm text-ink-muted italic')}>
         {block.prefix && <span className="mr-2 font-mono text-xs text-ink-muted" aria-hidden="true">{block.prefix}</span>}
         {STATUS_WORDS[block.status] && <span className="sr-only">{STATUS_WORDS[block.status]}: </span>}
         {text.trim() === '' && block.type === 'paragraph' ? <span className="text-ink-muted">(empty paragraph)</span> : body}
@@ -44,7 +83,7 @@ function BlockView({ block, onComment, commentCount }: { block: BlockDiff; onCom
             type="button"
             onClick={() => onComment(block)}
             className={cn('rounded-sm px-1.5 text-xs hover:bg-accent-soft', commentCount === 0 ? 'text-ink-muted group-hover:text-accent' : 'font-semibold text-accent')}
-            aria-label={`Comment on this ${block.type === 'cell' ? 'cell' : 'block'}: ${text.slice(0, 40)}`}
+            aria-label={`Comment on this ${block.type === 'cell' ? 'cell' : 'block'}: ${blockLabel(block).slice(0, 40)}`}
           >
             {commentCount > 0 ? `${commentCount} ${commentCount === 1 ? 'comment' : 'comments'}` : 'Comment'}
           </button>

@@ -3,6 +3,10 @@ import { Link } from 'react-router';
 import { ENTRY_STATUSES, ENTRY_STATUS_LABELS } from '@shared/api/entries.ts';
 import { SEARCH_EVENT_KINDS, SEARCH_EVENT_LABELS, type SearchHit, type SearchQueryInput } from '@shared/api/search.ts';
 import { Button } from '@/components/ui/button.tsx';
+import { KatexFormula } from '@/components/ui/katex-formula.tsx';
+import { getEntryQueryOptions } from '@/features/entries/api/get-entry.ts';
+import { usePrefetchOnIntent } from '@/lib/prefetch.ts';
+import { latexToText } from '@shared/editor/inline-maths.ts';
 import { isApiError } from '@/lib/api-error.ts';
 import { useSearchEntries } from '../api/search-entries.ts';
 
@@ -104,16 +108,17 @@ export function SearchPage(props: { entryHref: (notebookId: string, entryId: str
 }
 
 function SearchResult({ hit, href }: { hit: SearchHit; href: string }) {
+  const prefetch = usePrefetchOnIntent();
   return (
     <li className="rounded-lg border border-rule bg-surface p-3">
-      <Link to={href} className="font-serif text-lg font-bold text-accent underline">
+      <Link to={href} {...prefetch((qc) => qc.prefetchQuery(getEntryQueryOptions(hit.notebook.id, hit.entryId)))} className="font-serif text-lg font-bold text-accent underline">
         {hit.title}
       </Link>
       <p className="text-xs text-ink-muted">
         {hit.notebook.title} · {hit.entryDate} · {hit.author.name} · {ENTRY_STATUS_LABELS[hit.status]}
       </p>
       <p className="mt-1 text-sm">
-        {hit.snippet.map((part, i) => (part.hit ? <mark key={i}>{part.text}</mark> : <span key={i}>{part.text}</span>))}
+        <SnippetText parts={hit.snippet} />
       </p>
       {hit.events.length > 0 && (
         <p className="mt-1 text-xs text-ink-muted">
@@ -121,5 +126,20 @@ function SearchResult({ hit, href }: { hit: SearchHit; href: string }) {
         </p>
       )}
     </li>
+  );
+}
+
+/**
+ * A search snippet: matched words marked, formulas typeset (a formula KaTeX cannot read, or one
+ * holding a matched word, still reads as words rather than LaTeX).
+ */
+export function SnippetText({ parts }: { parts: SearchHit['snippet'] }) {
+  return (
+    <>
+      {parts.map((part, i) => {
+        const content = part.maths ? <KatexFormula latex={part.text} fallback={latexToText(part.text)} /> : part.text;
+        return part.hit ? <mark key={i}>{content}</mark> : <span key={i}>{content}</span>;
+      })}
+    </>
   );
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
-import { bistableBands, foldMapSpec } from '@/features/cells/plots/fold-map-spec.ts';
-import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
+import { bistableBands, foldMapSpec } from '@shared/plots/fold-map-spec.ts';
+import { DEFAULT_PALETTE } from '@shared/plots/plot-style.ts';
 import { cuspFoldCurve } from './plot-fixtures.ts';
 
 describe('bistableBands', () => {

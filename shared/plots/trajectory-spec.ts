@@ -1,6 +1,6 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { SimulateResult } from '@shared/engine/contract.ts';
-import { paddedRange, plotConfig, quantitativeChannel, type PlotPalette } from './plot-palette.ts';
+import { paddedRange, plotConfig, quantitativeChannel, type PlotPalette } from './plot-style.ts';
 
 /** At most this many samples are drawn per series; longer runs are thinned evenly (ends kept). */
 export const MAX_DRAWN_SAMPLES = 4000;

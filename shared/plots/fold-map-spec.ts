@@ -8,7 +8,7 @@ import {
   paddedRange,
   quantitativeChannel,
   type PlotPalette,
-} from './plot-palette.ts';
+} from './plot-style.ts';
 
 export interface RegionBand {
   x: number;

@@ -1,4 +1,5 @@
 import type { TopLevelSpec } from 'vega-lite';
+import type { MeasurementRow } from '@shared/api/measurements.ts';
 import type {
   BranchEvent,
   BranchPoint,
@@ -11,12 +12,14 @@ import {
   formatEigenvalues,
   formatNumber,
   hoverLayer,
+  labelFont,
   layeredPlot,
   paddedRange,
   quantitativeChannel,
   type PlotPalette,
-} from './plot-palette.ts';
+} from './plot-style.ts';
 import { levelCrossings } from './level-crossings.ts';
+import { STABILITY_LABEL, stabilityColor, stabilityScales } from './stability-style.ts';
 
 /** What the vertical axis shows: one state variable, or the Euclidean norm of the state. */
 export const NORM_AXIS = '‖x‖';
@@ -187,8 +190,16 @@ export interface BranchDiagramOptions {
   palette: PlotPalette;
   /** Index of the event to highlight (from the events table). */
   selectedEvent?: number | null;
+  /** Measured data drawn over the branch (value and error bar against the parameter). */
+  measurements?: readonly MeasurementOverlay[];
   width?: number | 'container';
   height?: number;
+}
+
+/** One named set of measurements over a plot. */
+export interface MeasurementOverlay {
+  name: string;
+  rows: readonly MeasurementRow[];
 }
 
 /** Events in words, as the plot labels and the events table name them. */
@@ -198,28 +209,13 @@ export const EVENT_NAMES: Record<BranchEvent['kind'], string> = {
   'branch-point': 'branch point',
 };
 
-const STABILITY_LABEL: Record<Stability, string> = {
-  stable: 'stable',
-  unstable: 'unstable',
-  neutral: 'neutral',
-};
-
-/** The field's convention: stable solid, unstable dashed; neutral (rare, at the boundary) dotted grey. */
-const STABILITY_STYLE: Record<Stability, { color: (p: PlotPalette) => string; dash: number[] }> = {
-  stable: { color: (p) => p.stable, dash: [1, 0] },
-  unstable: { color: (p) => p.unstable, dash: [6, 4] },
-  neutral: { color: (p) => p.muted, dash: [2, 3] },
-};
-
 /** Vega-lite spec of a branch diagram: parameter horizontally, the chosen variable (or norm) vertically. */
 export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOptions): TopLevelSpec {
   const { points, events } = result.branch;
   const p = o.palette;
   const segments = splitByStability(points, o.yVariable);
   // Only the kinds present appear in the legend.
-  const kinds = (['stable', 'unstable', 'neutral'] as const).filter((k) =>
-    segments.some((seg) => seg.stability === k),
-  );
+  const stability = stabilityScales(p, segments.map((seg) => seg.stability));
   const lineRows = segments.flatMap((s) =>
     s.points.map((pt, order) => ({
       segment: s.index,
@@ -230,14 +226,17 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
     })),
   );
   const yValues = lineRows.map((r) => r.y);
+  const measured = (o.measurements ?? []).flatMap((m) =>
+    m.rows.map((r) => ({ set: m.name, mu: r.parameter, y: r.value, low: r.value - (r.errorLow ?? 0), high: r.value + (r.errorHigh ?? 0) })),
+  );
   const muRange = paddedRange(
-    points.map((pt) => pt.parameter),
+    [...points.map((pt) => pt.parameter), ...measured.map((m) => m.mu)],
     0.03,
   );
   const span = 0.12 * (muRange[1] - muRange[0]);
   const folds = events.flatMap((e, i) => (e.kind === 'fold' ? [{ e, i }] : []));
   const prediction = folds.flatMap(({ e, i }) => foldPrediction(e, i, o.yVariable, span));
-  const yDomain = paddedRange([...yValues, ...events.map((e) => projectState(e.state, o.yVariable))]);
+  const yDomain = paddedRange([...yValues, ...events.map((e) => projectState(e.state, o.yVariable)), ...measured.flatMap((m) => [m.low, m.high])]);
   const predictionRows = prediction
     .filter((r) => r.y >= yDomain[0] && r.y <= yDomain[1])
     .map((r) => ({
@@ -312,16 +311,11 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
       y,
       detail: { field: 'segment' },
       order: { field: 'order', type: 'quantitative' },
-      color: {
-        field: 'stability',
-        type: 'nominal',
-        title: null,
-        scale: { domain: kinds, range: kinds.map((k) => STABILITY_STYLE[k].color(p)) },
-      },
+      color: stabilityColor(p, segments.map((seg) => seg.stability), null),
       strokeDash: {
         field: 'stability',
         type: 'nominal',
-        scale: { domain: kinds, range: kinds.map((k) => STABILITY_STYLE[k].dash) },
+        scale: stability.dash,
         legend: null,
       },
     },
@@ -335,6 +329,18 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
       { field: 'eigenvalues', title: 'eigenvalues' },
     ]),
   );
+  if (measured.length > 0) {
+    const colour = p.measured ?? p.series[5];
+    layers.push(
+      { name: 'measured-error', data: { values: measured }, mark: { type: 'rule', color: colour }, encoding: { x, y: { ...y, field: 'low' }, y2: { field: 'high' } } },
+      {
+        name: 'measured',
+        data: { values: measured },
+        mark: { type: 'point', shape: 'diamond', filled: true, size: 40, color: colour },
+        encoding: { x, y, tooltip: [{ field: 'set', type: 'nominal', title: 'measured' }, { field: 'mu', type: 'quantitative', title: o.parameter, format: '.5~g' }, { field: 'y', type: 'quantitative', title: o.yVariable, format: '.5~g' }] },
+      },
+    );
+  }
   if (eventRows.length > 0) {
     layers.push({
       name: 'events',
@@ -362,7 +368,7 @@ export function branchDiagramSpec(result: ContinuationResult, o: BranchDiagramOp
             dx: 8,
             dy: -8,
             fontSize: 11,
-            font: 'IBM Plex Sans, sans-serif',
+            font: labelFont(p),
           },
           encoding: {
             x,

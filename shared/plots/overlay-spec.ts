@@ -1,9 +1,10 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { ContinuationResult, FoldCurveResult, SimulateResult } from '@shared/engine/contract.ts';
 import { displayName } from '@shared/diff/format.ts';
-import { projectState, splitByStability } from '@/features/cells/plots/branch-diagram-spec.ts';
-import { layeredPlot, paddedRange, quantitativeChannel, type PlotPalette } from '@/features/cells/plots/plot-palette.ts';
-import { thinIndices } from '@/features/cells/plots/trajectory-spec.ts';
+import { projectState, splitByStability } from './branch-diagram-spec.ts';
+import { layeredPlot, paddedRange, quantitativeChannel, type PlotPalette } from './plot-style.ts';
+import { stabilityColor } from './stability-style.ts';
+import { thinIndices } from './trajectory-spec.ts';
 
 /**
  * Plots of two revisions of one cell drawn over each other: the older faint and thin, the newer
@@ -72,7 +73,6 @@ export function branchOverlaySpec(older: ContinuationResult | null, newer: Conti
   );
   const x = { ...quantitativeChannel('mu', displayName(o.parameter), paddedRange(lineRows.map((r) => r.mu), 0.03)), axis };
   const y = { ...quantitativeChannel('y', displayName(o.yVariable), paddedRange([...lineRows.map((r) => r.y), ...eventRows.map((r) => r.y)])), axis };
-  const present = (['stable', 'unstable', 'neutral'] as const).filter((k) => lineRows.some((r) => r.stability === k));
   const p = o.palette;
   const layers: object[] = [
     {
@@ -84,12 +84,7 @@ export function branchOverlaySpec(older: ContinuationResult | null, newer: Conti
         y,
         detail: { field: 'segment' },
         order: { field: 'order', type: 'quantitative' },
-        color: {
-          field: 'stability',
-          type: 'nominal',
-          title: 'stability',
-          scale: { domain: present, range: present.map((k) => ({ stable: p.stable, unstable: p.unstable, neutral: p.muted })[k]) },
-        },
+        color: stabilityColor(p, lineRows.map((r) => r.stability), 'stability'),
         ...revisionChannels,
       },
     },

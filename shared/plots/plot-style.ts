@@ -1,7 +1,7 @@
 /**
- * Colours of the plots, read from the shell's CSS variables so that plots follow the light and
- * dark themes. Plot specs take a palette as data (they are pure); `readPlotPalette` reads it
- * from the page.
+ * The look every plot shares: colours, fonts and the helpers the plot-spec builders use. Specs take
+ * a palette as data (they are pure): the client reads it from the page's theme
+ * (`src/lib/plot-palette.ts`), server-side figures use `PRINT_PALETTE`.
  */
 export interface PlotPalette {
   ink: string;
@@ -19,7 +19,17 @@ export interface PlotPalette {
   region: string;
   /** One colour per series (trajectory variables). */
   series: string[];
+  /** Measured data drawn over a result. */
+  measured?: string;
+  /** Text and label fonts (default: the app's IBM Plex). */
+  font?: string;
+  monoFont?: string;
+  /** Plot background (default: transparent, the page shows through). */
+  background?: string;
 }
+
+const SANS = 'IBM Plex Sans, system-ui, sans-serif';
+const MONO = 'IBM Plex Mono, monospace';
 
 /** Used in tests and when no page is there to read (values of the light theme). */
 export const DEFAULT_PALETTE: PlotPalette = {
@@ -35,40 +45,24 @@ export const DEFAULT_PALETTE: PlotPalette = {
   flowDown: '#f7ebcf',
   region: '#dcefee',
   series: ['#2f3f9e', '#a8321c', '#0e6a70', '#7a4e00', '#6b3fa0', '#24663a'],
+  measured: '#24663a',
 };
 
-export function readPlotPalette(el: Element = document.documentElement): PlotPalette {
-  const css = getComputedStyle(el);
-  const v = (name: string, fallback: string) => css.getPropertyValue(name).trim() || fallback;
-  const d = DEFAULT_PALETTE;
-  return {
-    ink: v('--bf-ink', d.ink),
-    muted: v('--bf-ink-muted', d.muted),
-    rule: v('--bf-rule', d.rule),
-    surface: v('--bf-surface', d.surface),
-    stable: v('--bf-stable', d.stable),
-    unstable: v('--bf-unstable', d.unstable),
-    accent: v('--bf-accent', d.accent),
-    warning: v('--bf-warning', d.warning),
-    flowUp: v('--bf-accent-soft', d.flowUp),
-    flowDown: v('--bf-warning-soft', d.flowDown),
-    region: v('--bf-accent-soft', d.region),
-    series: [
-      v('--bf-stable', d.series[0]),
-      v('--bf-unstable', d.series[1]),
-      v('--bf-accent', d.series[2]),
-      v('--bf-warning', d.series[3]),
-      d.series[4],
-      v('--bf-success', d.series[5]),
-    ],
-  };
-}
+/** Figures rendered on the server for print and export: the light theme's colours on white, a font every machine has. */
+export const PRINT_PALETTE: PlotPalette = {
+  ...DEFAULT_PALETTE,
+  surface: '#ffffff',
+  rule: '#e3ddd0',
+  background: '#ffffff',
+  font: 'DejaVu Sans',
+  monoFont: 'DejaVu Sans Mono',
+};
 
 /** Shared look of every plot: fonts, axes, no chart border. */
 export function plotConfig(p: PlotPalette) {
   return {
-    font: 'IBM Plex Sans, system-ui, sans-serif',
-    background: 'transparent',
+    font: p.font ?? SANS,
+    background: p.background ?? 'transparent',
     view: { stroke: p.rule },
     axis: {
       labelColor: p.muted,
@@ -77,9 +71,9 @@ export function plotConfig(p: PlotPalette) {
       tickColor: p.muted,
       gridColor: p.rule,
       gridOpacity: 0.6,
-      labelFont: 'IBM Plex Mono, monospace',
+      labelFont: p.monoFont ?? MONO,
       labelFontSize: 11,
-      titleFont: 'IBM Plex Sans, system-ui, sans-serif',
+      titleFont: p.font ?? SANS,
       titleFontSize: 12,
       titleFontWeight: 500,
       // About one label per 60 px on a 900 px plot; overlapping labels are dropped, not crowded.
@@ -94,6 +88,7 @@ export function plotConfig(p: PlotPalette) {
       direction: 'horizontal' as const,
     },
     text: { color: p.ink },
+    title: { color: p.ink, font: p.font ?? SANS, fontSize: 13, anchor: 'start' as const },
   };
 }
 
@@ -173,3 +168,6 @@ export function layeredPlot(
     ...extra,
   };
 }
+
+/** The font of labels drawn as text marks. */
+export const labelFont = (p: PlotPalette): string => p.font ?? SANS;

@@ -7,8 +7,8 @@ import {
   NORM_AXIS,
   projectState,
   splitByStability,
-} from '@/features/cells/plots/branch-diagram-spec.ts';
-import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
+} from '@shared/plots/branch-diagram-spec.ts';
+import { DEFAULT_PALETTE } from '@shared/plots/plot-style.ts';
 import { firstFold, mirroredSaddleNodeBranch, saddleNodeBranch } from './plot-fixtures.ts';
 
 type Layer = {

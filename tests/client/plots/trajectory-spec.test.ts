@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
 import type { SimulateResult } from '@shared/engine/contract.ts';
-import { phasePlaneSpec, thinIndices, timeSeriesSpec } from '@/features/cells/plots/trajectory-spec.ts';
-import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
+import { phasePlaneSpec, thinIndices, timeSeriesSpec } from '@shared/plots/trajectory-spec.ts';
+import { DEFAULT_PALETTE } from '@shared/plots/plot-style.ts';
 
 /** Harmonic oscillator x′ = y, y′ = −x from (1, 0): x = cos t, y = −sin t (closed form). */
 function oscillator(n: number): SimulateResult {

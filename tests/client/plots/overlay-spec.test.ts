@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { compile } from 'vega-lite';
 import { analyze } from '@server/engine/index.ts';
-import { DEFAULT_PALETTE } from '@/features/cells/plots/plot-palette.ts';
-import { branchOverlaySpec, foldCurveOverlaySpec, REVISION_LABELS, trajectoryOverlaySpec } from '@/features/reviews/plots/overlay-spec.ts';
+import { DEFAULT_PALETTE } from '@shared/plots/plot-style.ts';
+import { branchOverlaySpec, foldCurveOverlaySpec, REVISION_LABELS, trajectoryOverlaySpec } from '@shared/plots/overlay-spec.ts';
 
 type Layer = { name?: string; data?: { values: Record<string, unknown>[] }; encoding?: Record<string, { scale?: { domain?: unknown[]; range?: unknown[] } }> };
 const layer = (spec: unknown, name: string): Layer => {
