@@ -71,7 +71,7 @@ export async function seedReviewsAndComments(
     'Steady states at two residence times, with the interpretation. Ready for your review.',
   );
   await approveReview(
-    { dataSource: deps.dataSource, pool: deps.pool, publicUrl },
+    { dataSource: deps.dataSource, reruns: { pool: deps.pool }, publicUrl },
     {
       actor: deps.people.pi,
       notebookId: steady.entry.notebookId,

@@ -21,6 +21,9 @@ export interface RunWaitLimits {
 }
 export const DEFAULT_RUN_WAIT: RunWaitLimits = { queueWaitMs: 60_000, pollMs: 2_000 };
 
+/** Time between two sweeps of ended runs on each instance. */
+const DEFAULT_SWEEP_INTERVAL_MS = 10 * 60_000;
+
 /** Seconds a job may stay with its worker past the run's hard limit before pg-boss fails it. */
 const EXPIRY_MARGIN_SECONDS = 30;
 
@@ -35,6 +38,10 @@ export interface RunQueueOptions {
   /** How often one instance fails jobs whose worker went quiet past their expiry (default 30 s). */
   maintenanceIntervalSeconds?: number;
   wait?: Partial<RunWaitLimits>;
+  /** Clean-up every instance runs now and then (ended runs' rows); its failures are logged and tried again at the next turn. */
+  sweep?: () => Promise<unknown>;
+  /** Time between sweeps (default 10 minutes; the first comes one interval after start). */
+  sweepIntervalMs?: number;
 }
 
 /**
@@ -46,6 +53,8 @@ export interface RunQueueOptions {
  */
 export class RunQueue {
   private readonly workerIds: string[] = [];
+  private sweepTimer: NodeJS.Timeout | null = null;
+  private sweeping: Promise<unknown> | null = null;
 
   private constructor(
     private readonly boss: PgBoss,
@@ -53,6 +62,18 @@ export class RunQueue {
     readonly wait: RunWaitLimits,
     private readonly maintenanceIntervalSeconds: number,
   ) {}
+
+  /** Runs `sweep` every `intervalMs`, never two at once, without keeping the process alive. */
+  private startSweeping(sweep: () => Promise<unknown>, intervalMs: number): void {
+    this.sweepTimer = setInterval(() => {
+      this.sweeping ??= sweep()
+        .catch((error: Error) => console.error(`[run-queue] sweep: ${error.message}`))
+        .finally(() => {
+          this.sweeping = null;
+        });
+    }, intervalMs);
+    this.sweepTimer.unref();
+  }
 
   /** How long a job may stay with its worker (counted from when the worker takes it). */
   static expireInSeconds(hardLimitMs: number): number {
@@ -91,6 +112,7 @@ export class RunQueue {
         );
         queue.workerIds.push(id);
       }
+      if (options.sweep) queue.startSweeping(options.sweep, options.sweepIntervalMs ?? DEFAULT_SWEEP_INTERVAL_MS);
     } catch (error) {
       await queue.stop();
       throw error;
@@ -124,6 +146,8 @@ export class RunQueue {
    * and their waiting requests say so), and closes the connections.
    */
   async stop(timeoutMs = 10_000): Promise<void> {
+    if (this.sweepTimer) clearInterval(this.sweepTimer);
+    await this.sweeping;
     await this.boss.stop({ graceful: true, wait: true, timeout: timeoutMs }).catch((error: Error) => {
       console.error(`[run-queue] stop: ${error.message}`);
     });

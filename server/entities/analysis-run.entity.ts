@@ -8,6 +8,10 @@ export type AnalysisRunStatus = (typeof ANALYSIS_RUN_STATUSES)[number];
 /** The statuses of a run in progress (at most one per cell). */
 export const ACTIVE_RUN_STATUSES: readonly AnalysisRunStatus[] = ['queued', 'running'];
 
+/** What a run is for: a person's run of the cell, or a rerun for the reproducibility check before signing. */
+export const ANALYSIS_RUN_PURPOSES = ['cell', 'reproducibility'] as const;
+export type AnalysisRunPurpose = (typeof ANALYSIS_RUN_PURPOSES)[number];
+
 /** The engine request a run computes (as validated by the run route; the budget is a column). */
 export interface AnalysisRunRequest {
   model: unknown;
@@ -22,6 +26,8 @@ export interface AnalysisRunRequest {
  * "failed": the run could not be computed (the queue stayed busy, the instance running it
  * stopped); "cancelled": superseded, cancelled, or its caller went away. A run that is over
  * holds the answer the waiting request sends (`output`, the RunCellResponse shape).
+ * A "reproducibility" run is a rerun for the check before signing: it is never superseded by
+ * (and never supersedes) the cell's own runs, and stores neither a result nor an audit event.
  */
 @Entity({ name: 'analysis_run' })
 export class AnalysisRunEntity {
@@ -49,6 +55,9 @@ export class AnalysisRunEntity {
   @ManyToOne('UserEntity')
   @JoinColumn({ name: 'started_by_id' })
   startedBy?: Relation<UserEntity>;
+
+  @Column({ type: 'text' })
+  purpose: AnalysisRunPurpose;
 
   @Column({ type: 'text' })
   status: AnalysisRunStatus;

@@ -1,7 +1,6 @@
 import { Router, type Request } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import { approveReviewSchema, markSeenSchema, requestChangesSchema, submitReviewSchema } from '@shared/api/reviews.ts';
-import { getAnalysisPool } from '@server/analysis/analysis-pool.ts';
 import type { RouteDeps } from '@server/app-deps.ts';
 import { NotFoundError, RateLimitedError } from '@server/errors/index.ts';
 import { currentUser, requireUser } from '@server/middlewares/authenticate.ts';
@@ -30,6 +29,7 @@ const params = (req: Request) => req.params as Params;
 export function reviewsRoutes(deps: RouteDeps): Router {
   const router = Router({ mergeParams: true });
   const { dataSource } = deps;
+  const reruns = { queue: deps.runQueue };
   const publicUrl = deps.env.PUBLIC_URL;
   router.use(requireUser);
 
@@ -96,14 +96,14 @@ export function reviewsRoutes(deps: RouteDeps): Router {
   router.post('/approve', signatureFailures, async (req, res) => {
     const body = validate(approveReviewSchema, req.body);
     const { review } = await approveReview(
-      { dataSource, pool: getAnalysisPool(), publicUrl },
+      { dataSource, reruns, publicUrl },
       { actor: currentUser(req), ...params(req), ...body },
     );
     res.json(await detail(req, review));
   });
 
   router.get('/reproducibility', async (req, res) => {
-    res.json(await previewReproducibility({ dataSource, pool: getAnalysisPool() }, { actor: currentUser(req), ...params(req) }));
+    res.json(await previewReproducibility({ dataSource, reruns }, { actor: currentUser(req), ...params(req) }));
   });
 
   return router;

@@ -14,6 +14,7 @@ describe('cell runs on a queue-only instance', () => {
   let csrf: string;
   let runUrl: (cellId: string) => string;
   let boss: PgBoss;
+  let owner: { entryId: string; notebookId: string; userId: string };
   const request = {
     model: { variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 1 }], definitions: [] },
     task: { kind: 'equilibria', box: { x: [-2, 2] }, starts: 4 },
@@ -23,12 +24,13 @@ describe('cell runs on a queue-only instance', () => {
     ((await t.dataSource.query(`SELECT id, status, job_id FROM analysis_run WHERE cell_id = $1`, [cellId])) as { id: string; status: string; job_id: string }[])[0];
 
   beforeAll(async () => {
-    t = await createTestApp({ env: { ANALYSIS_WORKERS: '0' }, runWait: { queueWaitMs: 1500, pollMs: 200 } });
+    t = await createTestApp({ env: { ANALYSIS_WORKERS: '0' }, runWait: { queueWaitMs: 1500, pollMs: 200 }, runSweepIntervalMs: 200 });
     const person = await makeUser(t.dataSource, { label: 'queue' });
     const notebook = await makeNotebook(t.dataSource, person.user);
     ({ agent, csrf } = await signIn(t.app, person));
     const entry = (await agent.post(`/api/notebooks/${notebook.id}/entries`).set('x-csrf-token', csrf).send({ title: 'Queue', entryDate: '2026-12-01' })).body as EntryDetail;
     runUrl = (cellId) => `/api/notebooks/${notebook.id}/entries/${entry.entry.id}/cells/${cellId}/run`;
+    owner = { entryId: entry.entry.id, notebookId: notebook.id, userId: person.user.id };
     boss = new PgBoss({ connectionString: t.env.DATABASE_URL, max: 2, supervise: false, schedule: false, migrate: false });
     await boss.start();
   });
@@ -66,5 +68,28 @@ describe('cell runs on a queue-only instance', () => {
     expect(output).toMatchObject({ status: 'error', error: { code: 'run_failed' } });
     expect(output.error?.message).toMatch(/stopped before it finished/);
     expect((await runRow(cellId)).status).toBe('failed');
+  });
+
+  it('sweeps away the runs of every cell that ended over an hour ago, on an instance with no workers, and keeps the rest', async () => {
+    const insert = async (purpose: string, status: string, endedAgo: string | null): Promise<string> => {
+      const [{ id }] = (await t.dataSource.query(
+        `INSERT INTO analysis_run (notebook_id, entry_id, cell_id, purpose, input_hash, request, started_by_id, status, budget_ms, output, queued_at, finished_at)
+         VALUES ($1, $2, gen_random_uuid(), $3, 'sweep', '{}', $4, $5, 1000, CASE WHEN $6::interval IS NULL THEN NULL ELSE '{}'::jsonb END,
+                 now() - interval '3 hours', now() - $6::interval)
+         RETURNING id`,
+        [owner.notebookId, owner.entryId, purpose, owner.userId, status, endedAgo],
+      )) as { id: string }[];
+      return id;
+    };
+    const old = [await insert('cell', 'finished', '2 hours'), await insert('reproducibility', 'cancelled', '61 minutes'), await insert('cell', 'failed', '1 day')];
+    const kept = [await insert('cell', 'finished', '10 minutes'), await insert('reproducibility', 'finished', '59 minutes'), await insert('cell', 'running', null)];
+    const left = async () => ((await t.dataSource.query(`SELECT id FROM analysis_run WHERE input_hash = 'sweep'`)) as { id: string }[]).map((r) => r.id);
+    let ids = await left();
+    for (let i = 0; i < 50 && old.some((id) => ids.includes(id)); i += 1) {
+      await new Promise((r) => setTimeout(r, 100));
+      ids = await left();
+    }
+    expect(ids.sort()).toEqual([...kept].sort());
+    await t.dataSource.query(`DELETE FROM analysis_run WHERE input_hash = 'sweep'`);
   });
 });

@@ -50,7 +50,7 @@ export interface TestApp {
  * (beforeAll/afterAll).
  */
 export async function createTestApp(
-  options: AppOptions & { mailer?: Mailer; env?: Record<string, string>; runWait?: Partial<RunWaitLimits> } = {},
+  options: AppOptions & { mailer?: Mailer; env?: Record<string, string>; runWait?: Partial<RunWaitLimits>; runSweepIntervalMs?: number } = {},
 ): Promise<TestApp> {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'bifolio-app-'));
   const [smtpPort, s3Port] = [await freePort(), await freePort()];
@@ -70,7 +70,7 @@ export async function createTestApp(
   const dataSource = await createDataSource(env.DATABASE_URL, { poolSize: 4 }).initialize();
   const mailer = options.mailer ?? createSmtpMailer(env);
   const storage = createS3Storage(env);
-  const runQueue = await startAnalysisRunWorker(env, dataSource, { wait: options.runWait });
+  const runQueue = await startAnalysisRunWorker(env, dataSource, { wait: options.runWait, sweepIntervalMs: options.runSweepIntervalMs });
   const bifolio = createApp(
     { env, dataSource, mailer, storage, runQueue },
     { sessionPruneSeconds: false, ...options, rateLimits: { namespace: `test-${randomUUID()}`, ...options.rateLimits } },

@@ -22,8 +22,9 @@ export interface ExecuteRunDeps {
  * A worker's part of a cell run (a pg-boss job): takes the run if it is still queued (a run
  * cancelled while it waited is skipped), runs it in this instance's pool, and stores the result,
  * the `cell.run` audit event and the run's output and status in one transaction, which notifies
- * the waiting request. A cancel notification for the run stops its worker thread; a run that was
- * cancelled meanwhile writes nothing.
+ * the waiting request. A reproducibility rerun stores only its output and status: the check
+ * compares it, and the signature keeps the check's report. A cancel notification for the run
+ * stops its worker thread; a run that was cancelled meanwhile writes nothing.
  */
 export async function executeRun(deps: ExecuteRunDeps, runId: string): Promise<void> {
   const controller = new AbortController();
@@ -43,7 +44,7 @@ export async function executeRun(deps: ExecuteRunDeps, runId: string): Promise<v
     try {
       outcome = await deps.pool.run(request, { budgetMs: run.budgetMs, signal: controller.signal });
     } catch (error) {
-      // The pool refused it (its queue is full of reproducibility reruns): the run fails, saying why.
+      // The pool refused it (it holds as many runs as it accepts): the run fails, saying why.
       const message = error instanceof Error ? error.message : String(error);
       await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
       return;
@@ -54,7 +55,7 @@ export async function executeRun(deps: ExecuteRunDeps, runId: string): Promise<v
     const output = presentRunOutcome(outcome, { inputHash: run.inputHash, engineVersion: ENGINE_VERSION, computedAt });
     await deps.dataSource.transaction(async (manager) => {
       const settled = await settleActiveRuns(manager, { id: run.id }, 'finished', () => output);
-      if (!settled.length) return;
+      if (!settled.length || run.purpose === 'reproducibility') return;
       if (outcome.status === 'ok') {
         await manager
           .createQueryBuilder()

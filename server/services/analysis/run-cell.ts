@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { RunCellInput, RunCellResponse } from '@shared/api/entries.ts';
 import { analyzeRequestSchema, ENGINE_ERROR_CODES, type AnalyzeResult } from '@shared/engine/contract.ts';
 import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
@@ -61,26 +61,95 @@ export async function runCell(deps: RunCellDeps, props: RunCellProps): Promise<R
   if ('answer' in prepared) return prepared.answer;
   const { run, superseded } = prepared;
   await deps.queue.cancel(waitingJobIds(superseded));
+  await queueRun(deps, run);
+  return awaitRun(deps, run, props.signal);
+}
+
+export interface RerunCellProps {
+  actor: { id: string };
+  /** The entry whose revision is being checked. */
+  entry: Pick<EntryEntity, 'id' | 'notebookId'>;
+  cellId: string;
+  /** The engine request the revision's cell resolves to. */
+  request: { model: unknown; task: unknown };
+  /** The engine's time budget (from when a worker takes the rerun). */
+  budgetMs: number;
+  /** Aborting it cancels the rerun (queued or running); the answer is then null. */
+  signal?: AbortSignal;
+}
+
+/**
+ * A rerun of a cell for the reproducibility check before signing: computed afresh (never answered
+ * from the store) through the same queue as cell runs, by whichever instance has a free worker.
+ * Its row is a "reproducibility" run: it does not supersede the cell's own run in progress nor is
+ * superseded by one, and its worker stores neither a result nor an audit event (the signature
+ * keeps the check's report). Returns the rerun's output, or null when `signal` ended it first.
+ */
+export async function rerunCell(deps: RunCellDeps, props: RerunCellProps): Promise<RunCellResponse | null> {
+  const run = await deps.dataSource.manager.save(newRerun(deps.dataSource.manager, props));
+  await queueRun(deps, run);
+  return awaitRun(deps, run, props.signal);
+}
+
+function newRerun(manager: EntityManager, props: Omit<RerunCellProps, 'signal'>): AnalysisRunEntity {
+  const request = { model: props.request.model, task: props.request.task as AnalysisRunEntity['request']['task'] };
+  return newRun(manager, { ...props, purpose: 'reproducibility', inputHash: requestInputHash(ENGINE_VERSION, request), request });
+}
+
+/** Sends a run's job; a run that could not be queued fails at once (it must not stay "waiting"). */
+async function queueRun(deps: RunCellDeps, run: AnalysisRunEntity): Promise<void> {
   try {
     await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
   } catch (error) {
-    // Not queued, so never run: the row must not stay "waiting".
     const message = 'The run could not be queued; try again in a moment';
     await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
     throw error;
   }
-  return awaitRun(deps, run, props.signal);
+}
+
+/** A new run's row, queued now with a job id of its own. */
+function newRun(
+  manager: EntityManager,
+  props: Pick<RerunCellProps, 'actor' | 'entry' | 'cellId' | 'budgetMs'> & Pick<AnalysisRunEntity, 'purpose' | 'inputHash' | 'request'>,
+): AnalysisRunEntity {
+  return manager.create(AnalysisRunEntity, {
+    notebookId: props.entry.notebookId,
+    entryId: props.entry.id,
+    cellId: props.cellId,
+    purpose: props.purpose,
+    inputHash: props.inputHash,
+    request: props.request,
+    startedById: props.actor.id,
+    status: 'queued',
+    budgetMs: props.budgetMs,
+    jobId: randomUUID(),
+    queuedAt: new Date(),
+  });
 }
 
 /**
  * The same run computed at once in the given pool, without the queue or waiting: for the demo
  * seed, which records entries before any server runs. Stores the same rows and audit event.
  */
-export async function runCellInPool(deps: { dataSource: DataSource; pool: AnalysisPool }, props: Omit<RunCellProps, 'signal'>): Promise<RunCellResponse> {
+export async function runCellInPool(deps: InPoolDeps, props: Omit<RunCellProps, 'signal'>): Promise<RunCellResponse> {
   const prepared = await prepareRun(deps.dataSource, props);
   if ('answer' in prepared) return prepared.answer;
-  await executeRun({ dataSource: deps.dataSource, pool: deps.pool, instance: 'seed' }, prepared.run.id);
-  const run = await deps.dataSource.manager.findOneByOrFail(AnalysisRunEntity, { id: prepared.run.id });
+  return executeInPool(deps, prepared.run);
+}
+
+/** A reproducibility rerun computed at once in the given pool (the demo seed signs before any server runs). */
+export async function rerunCellInPool(deps: InPoolDeps, props: Omit<RerunCellProps, 'signal'>): Promise<RunCellResponse> {
+  return executeInPool(deps, await deps.dataSource.manager.save(newRerun(deps.dataSource.manager, props)));
+}
+
+interface InPoolDeps {
+  dataSource: DataSource;
+  pool: AnalysisPool;
+}
+
+async function executeInPool(deps: InPoolDeps, queued: AnalysisRunEntity): Promise<RunCellResponse> {
+  await executeRun({ dataSource: deps.dataSource, pool: deps.pool, instance: 'seed' }, queued.id);
+  const run = await deps.dataSource.manager.findOneByOrFail(AnalysisRunEntity, { id: queued.id });
   return run.output ?? runErrorOutput(run, RUN_ERROR_CODES.crashed, 'The run ended without an output');
 }
 
@@ -112,25 +181,7 @@ async function prepareRun(
     // One run in progress per cell: concurrent starts of the same cell take turns here.
     await manager.query('SELECT pg_advisory_xact_lock(hashtextextended($1, 0))', [`analysis_run:${props.entry.id}:${props.cellId}`]);
     const superseded = await cancelActiveRuns(manager, { entryId: props.entry.id, cellId: props.cellId }, 'a newer run of this cell replaced it');
-    // The cell's runs that ended over an hour ago have been answered; their record is the audit trail.
-    await manager.query(
-      `DELETE FROM analysis_run WHERE entry_id = $1 AND cell_id = $2 AND finished_at < now() - interval '1 hour'`,
-      [props.entry.id, props.cellId],
-    );
-    const run = await manager.save(
-      manager.create(AnalysisRunEntity, {
-        notebookId: props.entry.notebookId,
-        entryId: props.entry.id,
-        cellId: props.cellId,
-        inputHash,
-        request,
-        startedById: props.actor.id,
-        status: 'queued',
-        budgetMs,
-        jobId: randomUUID(),
-        queuedAt: new Date(),
-      }),
-    );
+    const run = await manager.save(newRun(manager, { ...props, purpose: 'cell', inputHash, request, budgetMs }));
     return { run, superseded };
   });
 }

@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import type { RunCellResponse } from '@shared/api/entries.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import type { AnalysisOutcome } from '@server/analysis/analysis-task.ts';
@@ -6,7 +6,7 @@ import { RUN_CHANNELS, type RunChannel } from '@server/analysis/run-notification
 import { ACTIVE_RUN_STATUSES, AnalysisRunEntity, type AnalysisRunStatus } from '@server/entities/analysis-run.entity.ts';
 import { presentRunOutcome } from '@server/presenters/cell-output.presenter.ts';
 
-/** Which runs in progress to end: one run, or the cell's run. */
+/** Which runs in progress to end: one run, or the cell's own run (never a reproducibility rerun of it). */
 export type ActiveRunFilter = { id: string } | { entryId: string; cellId: string };
 
 /** Sends a run notification; inside a transaction it is delivered at commit. */
@@ -34,7 +34,7 @@ export async function settleActiveRuns(
 ): Promise<AnalysisRunEntity[]> {
   const runs = await manager
     .createQueryBuilder(AnalysisRunEntity, 'r')
-    .where(filter)
+    .where('id' in filter ? filter : { ...filter, purpose: 'cell' })
     .andWhere('r.status IN (:...active)', { active: ACTIVE_RUN_STATUSES })
     .setLock('pessimistic_write')
     .getMany();
@@ -44,4 +44,21 @@ export async function settleActiveRuns(
     if (status !== 'finished' && run.status === 'running') await notifyRun(manager, RUN_CHANNELS.cancelled, run.id);
   }
   return runs;
+}
+
+/** How long an ended run's row is kept (its request has long been answered; the audit trail stays). */
+export const ENDED_RUN_RETENTION_MS = 60 * 60_000;
+
+/**
+ * Deletes the runs of every cell that ended more than `retentionMs` ago; returns how many. Every
+ * instance sweeps now and then: one pass at a time across instances (an advisory lock that a
+ * pass already holding it makes the others skip), so concurrent passes never contend on rows.
+ */
+export async function pruneEndedRuns(dataSource: DataSource, retentionMs = ENDED_RUN_RETENTION_MS): Promise<number> {
+  return dataSource.transaction(async (manager) => {
+    const [{ locked }] = (await manager.query(`SELECT pg_try_advisory_xact_lock(hashtextextended('analysis_run:prune', 0)) AS locked`)) as { locked: boolean }[];
+    if (!locked) return 0;
+    const [, deleted] = (await manager.query(`DELETE FROM analysis_run WHERE finished_at < now() - make_interval(secs => $1)`, [retentionMs / 1000])) as [unknown, number];
+    return deleted;
+  });
 }

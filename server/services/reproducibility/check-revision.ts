@@ -5,7 +5,9 @@ import { isAnalysisKind } from '@shared/cells/kinds.ts';
 import type { CellOutputs } from '@shared/cells/output.ts';
 import { extractCells, type DocumentJson } from '@shared/editor/document.ts';
 import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
-import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import type { RunCellResponse } from '@shared/api/entries.ts';
+import { DEFAULT_GRACE_MS } from '@server/analysis/analysis-pool.ts';
+import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import { requestInputHash } from '@server/services/analysis/request-hash.ts';
 import { compareResults } from './compare-results.ts';
@@ -16,16 +18,27 @@ export interface ReproduceOptions {
   tolerance?: number;
 }
 
+/**
+ * Computes one cell afresh with the current engine, never from the store of earlier runs, within
+ * `budgetMs` of engine time; `signal` ends it (the answer is then null).
+ */
+export type RerunCell = (props: { cellId: string; request: { model: unknown; task: unknown }; budgetMs: number; signal: AbortSignal }) => Promise<RunCellResponse | null>;
+
+/** Rerun failures that say nothing about the cell: the rerun was not computed. */
+const NOT_COMPUTED_CODES: readonly string[] = [RUN_ERROR_CODES.queueBusy, RUN_ERROR_CODES.cancelled];
+
 const stoppedByTimeLimit = (r: unknown): boolean => JSON.stringify(r).includes('"time-limit"');
 
 /**
- * Reruns every analysis cell of a revision with the current engine (through the worker pool,
- * never answering from the store of earlier runs) and compares each result with the output the
- * revision stores. Cells without a stored output, or whose stored run was cut short by its time
- * budget, are "not-checked" with the reason. Runs one cell at a time, within a total time budget.
+ * Reruns every analysis cell of a revision with the current engine (through `rerun`, which
+ * queues it for any instance's worker, never answering from the store of earlier runs) and
+ * compares each result with the output the revision stores. Cells without a stored output, or
+ * whose stored run was cut short by its time budget, are "not-checked" with the reason. Runs one
+ * cell at a time within a total time budget: a rerun still waiting or running when it is spent
+ * (plus the pool's grace) is cancelled, and it and the cells after it are "not-checked".
  */
 export async function checkReproducibility(
-  pool: AnalysisPool,
+  rerun: RerunCell,
   revision: { document: DocumentJson; outputs: CellOutputs },
   options: ReproduceOptions = {},
 ): Promise<ReproducibilityReport> {
@@ -64,19 +77,32 @@ export async function checkReproducibility(
 
     const task = resolution.request.task as { timeLimitMs?: number };
     const budgetMs = Math.min(remaining, task.timeLimitMs ?? ENGINE_DEFAULTS.timeLimitMs);
-    const outcome = await pool.run({ model: resolution.request.model, task: resolution.request.task }, { budgetMs });
+    const output = await rerun({
+      cellId: cell.id,
+      request: { model: resolution.request.model, task: resolution.request.task },
+      budgetMs,
+      signal: AbortSignal.timeout(remaining + DEFAULT_GRACE_MS),
+    });
+    if (!output) {
+      report('not-checked', [...notes, 'the time for the reproducibility check ran out before the rerun of this cell ended']);
+      continue;
+    }
+    if (output.status === 'error' && NOT_COMPUTED_CODES.includes(output.error?.code ?? '')) {
+      report('not-checked', [...notes, `the rerun was not computed: ${output.error?.message ?? 'no reason given'}`]);
+      continue;
+    }
 
     let differences: string[];
-    if (stored.status === 'error' || outcome.status === 'error') {
+    if (stored.status === 'error' || output.status === 'error') {
       const a = stored.status === 'error' ? `error "${stored.error?.code}"` : 'a result';
-      const b = outcome.status === 'error' ? `error "${outcome.error.code}"` : 'a result';
-      differences = stored.status === 'error' && outcome.status === 'error' && stored.error?.code === outcome.error.code ? [] : [`stored ${a}, rerun ${b}`];
-    } else if (stoppedByTimeLimit(outcome.result)) {
+      const b = output.status === 'error' ? `error "${output.error?.code}"` : 'a result';
+      differences = stored.status === 'error' && output.status === 'error' && stored.error?.code === output.error?.code ? [] : [`stored ${a}, rerun ${b}`];
+    } else if (stoppedByTimeLimit(output.result)) {
       report('not-checked', [...notes, 'the rerun was cut short by its time budget']);
       continue;
     } else {
       const parameter = 'parameter' in resolution.request.task ? String(resolution.request.task.parameter) : null;
-      differences = stored.result ? compareResults(stored.result, outcome.result, parameter, tol) : ['the stored output has no result'];
+      differences = !stored.result ? ['the stored output has no result'] : !output.result ? ['the rerun has no result'] : compareResults(stored.result, output.result, parameter, tol);
     }
     const engineOnly = notes.filter((n) => n.startsWith('engine:'));
     const inputNotes = notes.filter((n) => !n.startsWith('engine:'));

@@ -1,6 +1,8 @@
 import type { DataSource } from 'typeorm';
 import type { ReproducibilityReport } from '@shared/api/reviews.ts';
 import type { AnalysisPool } from '@server/analysis/analysis-pool.ts';
+import type { RunQueue } from '@server/analysis/run-queue.ts';
+import type { EntryEntity } from '@server/entities/entry.entity.ts';
 import { RevisionEntity } from '@server/entities/revision.entity.ts';
 import { SignatureEntity } from '@server/entities/signature.entity.ts';
 import { UserEntity } from '@server/entities/user.entity.ts';
@@ -9,7 +11,8 @@ import { recordEvent } from '@server/services/audit/record-event.ts';
 import { verifyPassword } from '@server/services/auth/passwords.ts';
 import { loadEntry } from '@server/services/entries/load-entry.ts';
 import type { ActingContext } from '@server/services/entries/service-context.ts';
-import { checkReproducibility } from '@server/services/reproducibility/check-revision.ts';
+import { rerunCell, rerunCellInPool } from '@server/services/analysis/run-cell.ts';
+import { checkReproducibility, type RerunCell } from '@server/services/reproducibility/check-revision.ts';
 import { closeReview } from './close-review.ts';
 import { loadOpenReview } from './load-open-review.ts';
 import { NotReproducedError } from './not-reproduced.error.ts';
@@ -17,7 +20,11 @@ import { SignatureFailedError } from './signature-failed.error.ts';
 
 export interface ApproveDeps {
   dataSource: DataSource;
-  pool: AnalysisPool;
+  /**
+   * Where the reproducibility reruns are computed: the shared run queue (by whichever instance has
+   * a free worker), or a pool of this process (the demo seed, which signs before any server runs).
+   */
+  reruns: { queue: RunQueue } | { pool: AnalysisPool };
   publicUrl: string;
   /** Total time for the reproducibility rerun. */
   reproduceBudgetMs?: number;
@@ -66,7 +73,7 @@ export async function approveReview(deps: ApproveDeps, props: ApproveProps): Pro
   }
 
   const revision = await dataSource.manager.findOneByOrFail(RevisionEntity, { id: review.revisionId });
-  const reproducibility: ReproducibilityReport = await checkReproducibility(deps.pool, revision, { totalBudgetMs: deps.reproduceBudgetMs });
+  const reproducibility: ReproducibilityReport = await checkReproducibility(reruns(deps, signer, entry), revision, { totalBudgetMs: deps.reproduceBudgetMs });
   if (reproducibility.status === 'differs' && !props.acceptDifferences) throw new NotReproducedError(reproducibility);
 
   return dataSource.transaction(async (manager) => {
@@ -117,12 +124,19 @@ export async function approveReview(deps: ApproveDeps, props: ApproveProps): Pro
 
 /** The reproducibility check alone, for the PI to look at before signing. */
 export async function previewReproducibility(
-  deps: Pick<ApproveDeps, 'dataSource' | 'pool' | 'reproduceBudgetMs'>,
+  deps: Pick<ApproveDeps, 'dataSource' | 'reruns' | 'reproduceBudgetMs'>,
   props: { actor: UserEntity; notebookId: string; entryId: string },
 ): Promise<ReproducibilityReport> {
   const reading: ActingContext = { actor: props.actor, manager: deps.dataSource.manager };
   const entry = await loadEntry(reading, { notebookId: props.notebookId, entryId: props.entryId, action: 'read' });
   const review = await loadOpenReview(reading, { entry, action: 'decide' });
   const revision = await deps.dataSource.manager.findOneByOrFail(RevisionEntity, { id: review.revisionId });
-  return checkReproducibility(deps.pool, revision, { totalBudgetMs: deps.reproduceBudgetMs });
+  return checkReproducibility(reruns(deps, props.actor, entry), revision, { totalBudgetMs: deps.reproduceBudgetMs });
+}
+
+/** The check's reruns of the entry's cells, queued in the PI's name as reproducibility runs. */
+function reruns(deps: Pick<ApproveDeps, 'dataSource' | 'reruns'>, actor: UserEntity, entry: EntryEntity): RerunCell {
+  const { dataSource, reruns: where } = deps;
+  if ('queue' in where) return (props) => rerunCell({ dataSource, queue: where.queue }, { actor, entry, ...props });
+  return ({ signal: _uncancellable, ...props }) => rerunCellInPool({ dataSource, pool: where.pool }, { actor, entry, ...props });
 }
