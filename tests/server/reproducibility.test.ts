@@ -1,6 +1,14 @@
 import { describe, expect, it } from 'vitest';
+import type { RunCellResponse } from '@shared/api/entries.ts';
 import { REPRODUCIBILITY_RELATIVE_TOLERANCE } from '@shared/api/reviews.ts';
+import { resolveFromCells } from '@shared/cells/resolve.ts';
+import type { CellOutput } from '@shared/cells/output.ts';
+import { extractCells, type DocumentJson } from '@shared/editor/document.ts';
 import type { ContinuationResult, EquilibriaResult, FoldCurveResult, SimulateResult } from '@shared/engine/contract.ts';
+import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
+import { ENGINE_VERSION } from '@server/engine/version.ts';
+import { requestInputHash } from '@server/services/analysis/request-hash.ts';
+import { checkReproducibility, type RerunCell } from '@server/services/reproducibility/check-revision.ts';
 import { close, compareResults } from '@server/services/reproducibility/compare-results.ts';
 
 /**
@@ -87,5 +95,78 @@ describe('compareResults', () => {
     expect(compareResults(branch(0), { trajectory: { t: [], state: {} }, stopReason: 'end', steps: { accepted: 0, rejected: 0 }, engine }, 'mu')).toEqual([
       'the rerun gave a different kind of result than the stored one',
     ]);
+  });
+});
+
+describe('checkReproducibility', () => {
+  const MODEL = 'a0000000-0000-4000-8000-000000000001';
+  const FIRST = 'a0000000-0000-4000-8000-000000000002';
+  const SECOND = 'a0000000-0000-4000-8000-000000000003';
+  const cell = (id: string, kind: string, input: object) => ({ type: 'cell', attrs: { id, kind, input } });
+  const task = { kind: 'continuation', parameter: 'mu', start: { x: 1 }, bounds: { min: -1, max: 2 } };
+  const document: DocumentJson = {
+    type: 'doc',
+    content: [
+      cell(MODEL, 'model', { name: 'Saddle-node', variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 1 }], definitions: [] }),
+      cell(FIRST, 'branch', { modelCellId: MODEL, task }),
+      cell(SECOND, 'branch', { modelCellId: MODEL, task: { ...task, start: { x: -1 } } }),
+    ],
+  };
+  const cells = extractCells(document);
+  /** The stored output of a cell: a fold at μ = 0, computed from the cell's present input. */
+  const stored = (cellId: string): CellOutput => {
+    const resolution = resolveFromCells(cells, cells.find((c) => c.id === cellId)!);
+    if (!resolution.ok) throw new Error('the test cell does not resolve');
+    return { inputHash: requestInputHash(ENGINE_VERSION, resolution.request), engineVersion: ENGINE_VERSION, computedAt: new Date().toISOString(), status: 'ok', result: branch(0), elapsedMs: 1 };
+  };
+  const revision = { document, outputs: { [FIRST]: stored(FIRST), [SECOND]: stored(SECOND) } };
+  const answer = (output: Partial<RunCellResponse>): RunCellResponse => ({ ...stored(FIRST), cached: false, ...output }) as RunCellResponse;
+
+  it('reruns each analysis cell in turn, with its request, its engine budget and a signal, and compares the answers', async () => {
+    const calls: Parameters<RerunCell>[0][] = [];
+    const report = await checkReproducibility(async (props) => {
+      calls.push(props);
+      return answer({ result: props.cellId === FIRST ? branch(4e-7) : branch(0.01) });
+    }, revision);
+    expect(calls.map((c) => [c.cellId, c.budgetMs, c.signal.aborted])).toEqual([
+      [FIRST, ENGINE_DEFAULTS.timeLimitMs, false],
+      [SECOND, ENGINE_DEFAULTS.timeLimitMs, false],
+    ]);
+    expect(calls[0].request).toMatchObject({ task: { kind: 'continuation', parameter: 'mu' } });
+    expect(report.status).toBe('differs');
+    expect(report.cells.map((c) => [c.cellId, c.status])).toEqual([
+      [FIRST, 'reproduced'],
+      [SECOND, 'differs'],
+    ]);
+  });
+
+  it('reports "not-checked" for a rerun that did not end in the check\'s time or that no worker computed, never "differs"', async () => {
+    const report = await checkReproducibility(
+      async ({ cellId }) =>
+        cellId === FIRST ? null : answer({ status: 'error', result: undefined, error: { code: 'run_queue_busy', message: 'The analysis queue is busy' } }),
+      revision,
+    );
+    expect(report.status).toBe('not-checked');
+    expect(report.cells).toEqual([
+      { cellId: FIRST, kind: 'branch', status: 'not-checked', differences: ['the time for the reproducibility check ran out before the rerun of this cell ended'] },
+      { cellId: SECOND, kind: 'branch', status: 'not-checked', differences: ['the rerun was not computed: The analysis queue is busy'] },
+    ]);
+  });
+
+  it('keeps to its total time: the budget of a rerun is what is left, and cells not reached are "not-checked"', async () => {
+    const budgets: number[] = [];
+    const report = await checkReproducibility(
+      async ({ budgetMs }) => {
+        budgets.push(budgetMs);
+        await new Promise((r) => setTimeout(r, 400));
+        return answer({ result: branch(0) });
+      },
+      revision,
+      { totalBudgetMs: 1300 },
+    );
+    expect(budgets).toHaveLength(1);
+    expect(budgets[0]).toBeLessThanOrEqual(1300);
+    expect(report.cells.map((c) => c.status)).toEqual(['reproduced', 'not-checked']);
+    expect(report.cells[1].differences).toEqual(['the time for the reproducibility check ran out before this cell']);
   });
 });

@@ -99,6 +99,42 @@ describe('signatures and the reproducibility check', () => {
     expect(report.cells).toEqual([{ cellId: BRANCH_CELL, kind: 'branch', status: 'reproduced', differences: [] }]);
     // Researchers do not trigger reruns for review.
     expect((await kofi.get(`${entryUrl(entryId)}/review/reproducibility`)).status).toBe(403);
+
+    // The rerun went through the run queue as a run of its own kind, in the PI's name, computed
+    // afresh although the store holds the result; like the check always did, it stored no
+    // cell.run event (only the researcher's runs have them).
+    const db = logServer().dataSource;
+    const reruns = await db.query(
+      `SELECT r.status, u.email, r.output->>'cached' AS cached FROM analysis_run r JOIN app_user u ON u.id = r.started_by_id
+       WHERE r.entry_id = $1 AND r.cell_id = $2 AND r.purpose = 'reproducibility'`,
+      [entryId, BRANCH_CELL],
+    );
+    expect(reruns).toEqual([{ status: 'finished', email: DEMO_PEOPLE.pi.email, cached: 'false' }]);
+    const events = (await db.query(`SELECT actor_id FROM audit_event WHERE action = 'cell.run' AND entity_id = $1 AND summary->>'entryId' = $2`, [BRANCH_CELL, entryId])) as unknown[];
+    const researcherRuns = (await db.query(`SELECT 1 FROM analysis_run WHERE entry_id = $1 AND cell_id = $2 AND purpose = 'cell'`, [entryId, BRANCH_CELL])) as unknown[];
+    expect(events).toHaveLength(researcherRuns.length);
+  });
+
+  it('reruns a cell while the researcher\'s own run of it is in progress, neither run ending the other', async () => {
+    const { entryId } = await submittedWithRun('Rerun beside a run');
+    const db = logServer().dataSource;
+    // The researcher's run of the cell, waiting for a worker (its job is not in the queue, so it stays there).
+    const [own] = (await db.query(
+      `INSERT INTO analysis_run (notebook_id, entry_id, cell_id, input_hash, request, started_by_id, status, budget_ms, job_id)
+       SELECT e.notebook_id, e.id, $2, 'waiting', '{}', u.id, 'queued', 1000, gen_random_uuid()
+       FROM entry e, app_user u WHERE e.id = $1 AND u.email = $3 RETURNING id`,
+      [entryId, BRANCH_CELL, DEMO_PEOPLE.researcher.email],
+    )) as { id: string }[];
+    try {
+      const report = reproducibilityReportSchema.parse((await ines.get(`${entryUrl(entryId)}/review/reproducibility`)).body);
+      expect(report.status).toBe('reproduced');
+      const [{ status }] = (await db.query(`SELECT status FROM analysis_run WHERE id = $1`, [own.id])) as { status: string }[];
+      expect(status).toBe('queued');
+      // The cell's progress shows the researcher's run, not the rerun.
+      expect((await kofi.get(`${entryUrl(entryId)}/cells/${BRANCH_CELL}/run`)).body).toMatchObject({ state: 'waiting', startedBy: { name: DEMO_PEOPLE.researcher.name } });
+    } finally {
+      await db.query(`DELETE FROM analysis_run WHERE id = $1`, [own.id]);
+    }
   });
 
   it('says exactly what differs when the stored result is not what the engine computes, and signs only when told to', async () => {

@@ -159,6 +159,49 @@ describe('several server instances on one database and one bucket', () => {
     expect((await dataSource.query(`SELECT 1 FROM audit_event WHERE action = 'cell.run' AND entity_id = $1`, [longCell])) as unknown[]).toHaveLength(0);
   }, 60_000);
 
+  it('computes the reproducibility rerun of an approval made through the queue-only instance on the worker instance', async () => {
+    const researcher = await makeUser(dataSource, { label: 'scale-researcher' });
+    const pi = await makeUser(dataSource, { label: 'scale-pi' });
+    const reviewed = (await makeNotebook(dataSource, pi.user, [{ user: researcher.user, role: 'researcher' }])).id;
+    const [writer, signer] = [new Browser(), new Browser()];
+    for (const [browser, who] of [[writer, researcher], [signer, pi]] as const) {
+      await browser.begin(a);
+      expect((await browser.call(a, 'POST', '/api/auth/sign-in', { email: who.email, password: who.password })).status).toBe(200);
+    }
+    const created = await writer.call(a, 'POST', `/api/notebooks/${reviewed}/entries`, { title: 'Signed across instances', entryDate: '2026-12-02' });
+    const { entry, head } = created.body as { entry: { id: string }; head: { id: string } };
+    const entryUrl = `/api/notebooks/${reviewed}/entries/${entry.id}`;
+
+    // x' = μ − x² with μ = 6.25: equilibria at x = ±2.5, computed on B for the researcher.
+    const [modelCell, cell] = [crypto.randomUUID(), crypto.randomUUID()];
+    const model = { variables: [{ name: 'x', rhs: 'mu - x^2' }], parameters: [{ name: 'mu', value: 6.25 }], definitions: [] };
+    const task = { kind: 'equilibria', box: { x: [-4, 4] }, starts: 8 };
+    const run = runCellResponseSchema.parse((await writer.call(a, 'POST', `${entryUrl}/cells/${cell}/run`, { model, task })).body);
+    expect(run.status).toBe('ok');
+    const document = {
+      type: 'doc',
+      content: [
+        { type: 'cell', attrs: { id: modelCell, kind: 'model', input: { name: 'Saddle-node', ...model } } },
+        { type: 'cell', attrs: { id: cell, kind: 'equilibria', input: { modelCellId: modelCell, task } } },
+      ],
+    };
+    const revision = await writer.call(a, 'POST', `${entryUrl}/revisions`, {
+      baseRevisionId: head.id, title: 'Signed across instances', entryDate: '2026-12-02', tags: [], document, outputs: { [cell]: run },
+    });
+    expect(revision.status).toBe(201);
+    const revisionId = (revision.body as { id: string }).id;
+    expect((await writer.call(a, 'POST', `${entryUrl}/review`, { revisionId })).status).toBe(201);
+
+    const approved = await signer.call(a, 'POST', `${entryUrl}/review/approve`, { revisionId, password: pi.password });
+    expect(approved.status).toBe(200);
+    const [signature] = (approved.body as { signatures: { reproducibility: { status: string; cells: { cellId: string; status: string }[] } }[] }).signatures;
+    expect(signature.reproducibility.status).toBe('reproduced');
+    expect(signature.reproducibility.cells).toMatchObject([{ cellId: cell, status: 'reproduced' }]);
+    // The rerun was a queued run of its own kind, taken by B's worker: A (no workers) computed nothing.
+    const reruns = await dataSource.query(`SELECT status, instance FROM analysis_run WHERE cell_id = $1 AND purpose = 'reproducibility'`, [cell]);
+    expect(reruns).toEqual([{ status: 'finished', instance: 'instance-b' }]);
+  }, 60_000);
+
   it('counts failed sign-ins on both instances against one limit (ASVS V2.2.1)', async () => {
     const target = await makeUser(dataSource, { label: 'limited' });
     const browser = new Browser();
