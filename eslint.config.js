@@ -45,6 +45,13 @@ export default tseslint.config(
     },
   },
   {
+    // Every computation goes through the shared run queue: only its worker (server/jobs) owns the process's pool.
+    files: ['server/routes/**/*.ts', 'server/services/**/*.ts', 'server/middlewares/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { paths: [{ name: '@server/analysis/analysis-pool.ts', importNames: ['getAnalysisPool'], message: 'Queue the run (runCell, rerunCell); only the run worker owns the analysis pool.' }] }],
+    },
+  },
+  {
     // Command-line tools and scripts print to the console by design.
     files: ['scripts/**/*.ts', 'bench/**/*.ts', 'seeds/**/*.ts', 'server/engine/cli.ts', 'fake-s3/**/*.ts', '.ci/**'],
     rules: { 'no-console': 'off' },
