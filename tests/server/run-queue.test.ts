@@ -70,18 +70,23 @@ describe('cell runs on a queue-only instance', () => {
     expect((await runRow(cellId)).status).toBe('failed');
   });
 
-  it('sweeps away the runs of every cell that ended over an hour ago, on an instance with no workers, and keeps the rest', async () => {
-    const insert = async (purpose: string, status: string, endedAgo: string | null): Promise<string> => {
+  it('sweeps away the runs of every cell that ended over an hour ago or were abandoned unended, on an instance with no workers, and keeps the rest', async () => {
+    const insert = async (purpose: string, status: string, endedAgo: string | null, queuedAgo = '3 hours'): Promise<string> => {
       const [{ id }] = (await t.dataSource.query(
         `INSERT INTO analysis_run (notebook_id, entry_id, cell_id, purpose, input_hash, request, started_by_id, status, budget_ms, output, queued_at, finished_at)
          VALUES ($1, $2, gen_random_uuid(), $3, 'sweep', '{}', $4, $5, 1000, CASE WHEN $6::interval IS NULL THEN NULL ELSE '{}'::jsonb END,
-                 now() - interval '3 hours', now() - $6::interval)
+                 now() - $7::interval, now() - $6::interval)
          RETURNING id`,
-        [owner.notebookId, owner.entryId, purpose, owner.userId, status, endedAgo],
+        [owner.notebookId, owner.entryId, purpose, owner.userId, status, endedAgo, queuedAgo],
       )) as { id: string }[];
       return id;
     };
-    const old = [await insert('cell', 'finished', '2 hours'), await insert('reproducibility', 'cancelled', '61 minutes'), await insert('cell', 'failed', '1 day')];
+    const old = [
+      await insert('cell', 'finished', '2 hours'),
+      await insert('reproducibility', 'cancelled', '61 minutes'),
+      await insert('cell', 'failed', '1 day'),
+      await insert('reproducibility', 'running', null, '2 days'),
+    ];
     const kept = [await insert('cell', 'finished', '10 minutes'), await insert('reproducibility', 'finished', '59 minutes'), await insert('cell', 'running', null)];
     const left = async () => ((await t.dataSource.query(`SELECT id FROM analysis_run WHERE input_hash = 'sweep'`)) as { id: string }[]).map((r) => r.id);
     let ids = await left();

@@ -50,15 +50,27 @@ export async function settleActiveRuns(
 export const ENDED_RUN_RETENTION_MS = 60 * 60_000;
 
 /**
- * Deletes the runs of every cell that ended more than `retentionMs` ago; returns how many. Every
- * instance sweeps now and then: one pass at a time across instances (an advisory lock that a
- * pass already holding it makes the others skip), so concurrent passes never contend on rows.
+ * Age past which a run still marked queued or running was abandoned (the instances that queued
+ * and ran it both stopped): far beyond the longest wait in the queue plus the longest budget.
+ */
+export const ABANDONED_RUN_AGE_MS = 24 * 60 * 60_000;
+
+/**
+ * Deletes the runs of every cell that ended more than `retentionMs` ago, and those abandoned
+ * unended; returns how many. Every instance sweeps now and then: one pass at a time across
+ * instances (an advisory lock that makes the others skip their turn), so concurrent passes never
+ * contend on rows.
  */
 export async function pruneEndedRuns(dataSource: DataSource, retentionMs = ENDED_RUN_RETENTION_MS): Promise<number> {
   return dataSource.transaction(async (manager) => {
     const [{ locked }] = (await manager.query(`SELECT pg_try_advisory_xact_lock(hashtextextended('analysis_run:prune', 0)) AS locked`)) as { locked: boolean }[];
     if (!locked) return 0;
-    const [, deleted] = (await manager.query(`DELETE FROM analysis_run WHERE finished_at < now() - make_interval(secs => $1)`, [retentionMs / 1000])) as [unknown, number];
+    const [, deleted] = (await manager.query(
+      `DELETE FROM analysis_run
+       WHERE finished_at < now() - make_interval(secs => $1)
+          OR (finished_at IS NULL AND queued_at < now() - make_interval(secs => $2))`,
+      [retentionMs / 1000, ABANDONED_RUN_AGE_MS / 1000],
+    )) as [unknown, number];
     return deleted;
   });
 }
