@@ -103,11 +103,19 @@ export class RunQueue {
     try {
       await notifications.start();
       for (let i = 0; i < options.workers; i += 1) {
-        const id = await boss.work<AnalysisJobData>(
+        // After a job the worker asks again at once: pg-boss would otherwise wait out the rest of
+        // its polling interval, and a backlog would drain at one run per second per worker.
+        let id = '';
+        id = await boss.work<AnalysisJobData>(
           ANALYSIS_QUEUE,
           { batchSize: 1, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 1 },
           async ([job]) => {
-            if (job) await options.handle(job.data, notifications);
+            if (!job) return;
+            try {
+              await options.handle(job.data, notifications);
+            } finally {
+              if (id) boss.notifyWorker(id);
+            }
           },
         );
         queue.workerIds.push(id);
