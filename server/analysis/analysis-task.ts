@@ -24,8 +24,10 @@ export type AnalysisOutcome =
 export const RUN_ERROR_CODES = {
   /** The run went past its hard time limit and the worker was stopped. */
   timeLimit: 'run_time_limit',
-  /** The worker thread died, the engine failed unexpectedly, or the instance running it stopped. */
+  /** The worker thread died or the engine failed unexpectedly. */
   crashed: 'run_failed',
+  /** The run never got its answer computed: it could not be queued, or the instance running it stopped. */
+  lost: 'run_lost',
   /** The caller went away (closed the request), cancelled it or ran the cell again, and the run was stopped. */
   cancelled: 'run_cancelled',
   /** No worker on any instance took the run before the waiting request's limit. */

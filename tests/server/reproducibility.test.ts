@@ -6,6 +6,7 @@ import type { CellOutput } from '@shared/cells/output.ts';
 import { extractCells, type DocumentJson } from '@shared/editor/document.ts';
 import type { ContinuationResult, EquilibriaResult, FoldCurveResult, SimulateResult } from '@shared/engine/contract.ts';
 import { ENGINE_DEFAULTS } from '@shared/engine/limits.ts';
+import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
 import { ENGINE_VERSION } from '@server/engine/version.ts';
 import { requestInputHash } from '@server/services/analysis/request-hash.ts';
 import { checkReproducibility, type RerunCell } from '@server/services/reproducibility/check-revision.ts';
@@ -151,6 +152,20 @@ describe('checkReproducibility', () => {
       { cellId: FIRST, kind: 'branch', status: 'not-checked', differences: ['the time for the reproducibility check ran out before the rerun of this cell ended'] },
       { cellId: SECOND, kind: 'branch', status: 'not-checked', differences: ['the rerun was not computed: The analysis queue is busy'] },
     ]);
+  });
+
+  it('reports "not-checked" when the instance running a rerun stopped, but "differs" when the worker crashed on the cell', async () => {
+    const lost = await checkReproducibility(
+      async () => answer({ status: 'error', result: undefined, error: { code: RUN_ERROR_CODES.lost, message: 'The server running this analysis stopped before it finished' } }),
+      revision,
+    );
+    expect(lost.cells.map((c) => c.status)).toEqual(['not-checked', 'not-checked']);
+    const crashed = await checkReproducibility(
+      async () => answer({ status: 'error', result: undefined, error: { code: RUN_ERROR_CODES.crashed, message: 'The analysis worker failed: out of memory' } }),
+      revision,
+    );
+    expect(crashed.status).toBe('differs');
+    expect(crashed.cells[0].differences).toEqual(['stored a result, rerun error "run_failed"']);
   });
 
   it('keeps to its total time: the budget of a rerun is what is left, and cells not reached are "not-checked"', async () => {

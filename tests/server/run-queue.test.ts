@@ -2,6 +2,7 @@ import PgBoss from 'pg-boss';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCellResponseSchema, type EntryDetail } from '@shared/api/entries.ts';
 import { ANALYSIS_QUEUE, type AnalysisJobData } from '@server/analysis/run-queue.ts';
+import { RUN_ERROR_CODES } from '@server/analysis/analysis-task.ts';
 import { createTestApp, makeNotebook, makeUser, signIn, type Agent, type TestApp } from '../support/test-app.ts';
 
 /**
@@ -65,7 +66,7 @@ describe('cell runs on a queue-only instance', () => {
     await boss.fail(ANALYSIS_QUEUE, jobs[0].id, { message: 'job failed by timeout in active state' });
 
     const output = runCellResponseSchema.parse((await pending).body);
-    expect(output).toMatchObject({ status: 'error', error: { code: 'run_failed' } });
+    expect(output).toMatchObject({ status: 'error', error: { code: RUN_ERROR_CODES.lost } });
     expect(output.error?.message).toMatch(/stopped before it finished/);
     expect((await runRow(cellId)).status).toBe('failed');
   });

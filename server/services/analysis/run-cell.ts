@@ -102,7 +102,7 @@ async function queueRun(deps: RunCellDeps, run: AnalysisRunEntity): Promise<void
     await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
   } catch (error) {
     const message = 'The run could not be queued; try again in a moment';
-    await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
+    await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.lost, message)));
     throw error;
   }
 }
@@ -233,11 +233,11 @@ async function failIfOverdue(deps: RunCellDeps, run: AnalysisRunEntity, hardLimi
     const seconds = Math.round(deps.queue.wait.queueWaitMs / 1000);
     failure = { code: RUN_ERROR_CODES.queueBusy, message: `The analysis queue is busy: no worker was free for this run within ${seconds} s; try again in a moment` };
   } else if (run.status === 'running' && run.startedAt && now - run.startedAt.getTime() > deps.queue.runningLimitMs(hardLimitMs)) {
-    failure = { code: RUN_ERROR_CODES.crashed, message: 'The server running this analysis stopped answering before it finished; run it again' };
+    failure = { code: RUN_ERROR_CODES.lost, message: 'The server running this analysis stopped answering before it finished; run it again' };
   } else if (checkJob && run.jobId) {
     const state = await deps.queue.jobState(run.jobId);
     if (state === 'failed' || state === 'cancelled' || state === 'completed' || state === null) {
-      failure = { code: RUN_ERROR_CODES.crashed, message: 'The server running this analysis stopped before it finished; run it again' };
+      failure = { code: RUN_ERROR_CODES.lost, message: 'The server running this analysis stopped before it finished; run it again' };
     }
   }
   if (!failure) return;

@@ -24,8 +24,11 @@ export interface ReproduceOptions {
  */
 export type RerunCell = (props: { cellId: string; request: { model: unknown; task: unknown }; budgetMs: number; signal: AbortSignal }) => Promise<RunCellResponse | null>;
 
-/** Rerun failures that say nothing about the cell: the rerun was not computed. */
-const NOT_COMPUTED_CODES: readonly string[] = [RUN_ERROR_CODES.queueBusy, RUN_ERROR_CODES.cancelled];
+/**
+ * Rerun failures that say nothing about the cell: the rerun was not computed (no worker free,
+ * cancelled, or the instance running it stopped). A worker that crashed on the cell is a result.
+ */
+const NOT_COMPUTED_CODES: readonly string[] = [RUN_ERROR_CODES.queueBusy, RUN_ERROR_CODES.cancelled, RUN_ERROR_CODES.lost];
 
 const stoppedByTimeLimit = (r: unknown): boolean => JSON.stringify(r).includes('"time-limit"');
 
