@@ -24,8 +24,9 @@ function shutdown(code: number) {
   for (const child of children) if (child.exitCode === null) child.kill('SIGTERM');
   void stopServices().finally(() => process.exit(code));
 }
-process.once('SIGINT', () => shutdown(0));
-process.once('SIGTERM', () => shutdown(0));
+// `on`, not `once`: a Ctrl-C arrives twice (terminal and tsx's relay); shutdown ignores repeats.
+process.on('SIGINT', () => shutdown(0));
+process.on('SIGTERM', () => shutdown(0));
 
 try {
   await prepareLocalStack(env, log, (started) => {

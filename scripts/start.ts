@@ -26,8 +26,10 @@ const shutdown = (code: number) => {
     process.exit(code);
   });
 };
-process.once('SIGINT', () => shutdown(0));
-process.once('SIGTERM', () => shutdown(0));
+// `on`, not `once`: a Ctrl-C reaches this process twice (from the terminal and relayed by tsx),
+// and a second default SIGINT would exit before PostgreSQL and the other services are stopped.
+process.on('SIGINT', () => shutdown(0));
+process.on('SIGTERM', () => shutdown(0));
 
 try {
   const services = await prepareLocalStack(env, log, (started) => {

@@ -59,7 +59,13 @@ if (isEntryPoint) {
   const clientDir = path.resolve('dist/client');
   const running = await startServer(env, { clientDir: existsSync(clientDir) ? clientDir : null, host: process.env.HOST });
   process.stdout.write(`Bifolio API listening on 127.0.0.1:${running.port} (${env.PUBLIC_URL}), instance ${env.INSTANCE_NAME}, ${env.ANALYSIS_WORKERS} analysis worker(s)\n`);
+  // A signal may arrive twice (a terminal's Ctrl-C and tsx's relay of it): stop once, ignore repeats.
+  let stopping = false;
   for (const signal of ['SIGINT', 'SIGTERM'] as const) {
-    process.once(signal, () => void running.stop().then(() => process.exit(0)));
+    process.on(signal, () => {
+      if (stopping) return;
+      stopping = true;
+      void running.stop().then(() => process.exit(0));
+    });
   }
 }
