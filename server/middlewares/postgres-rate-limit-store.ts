@@ -19,7 +19,7 @@ export class PostgresRateLimitStore implements Store {
   private windowMs = 60_000;
   private increments = 0;
 
-  /** `limiter` names the counter set (e.g. "sign-in"); it is also the store's key prefix. */
+  /** `prefix` names the counter set (e.g. "sign-in"): the `limiter` column of its rows. */
   constructor(
     private readonly dataSource: DataSource,
     readonly prefix: string,

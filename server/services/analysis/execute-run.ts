@@ -7,7 +7,7 @@ import { AnalysisResultEntity } from '@server/entities/analysis-result.entity.ts
 import { AnalysisRunEntity } from '@server/entities/analysis-run.entity.ts';
 import { presentRunOutcome } from '@server/presenters/cell-output.presenter.ts';
 import { recordEvent } from '@server/services/audit/record-event.ts';
-import { runErrorOutput, settleActiveRuns } from './run-rows.ts';
+import { failRun, settleActiveRuns } from './run-rows.ts';
 
 export interface ExecuteRunDeps {
   dataSource: DataSource;
@@ -45,8 +45,7 @@ export async function executeRun(deps: ExecuteRunDeps, runId: string): Promise<v
       outcome = await deps.pool.run(request, { budgetMs: run.budgetMs, signal: controller.signal });
     } catch (error) {
       // The pool refused it (it holds as many runs as it accepts): the run fails, saying why.
-      const message = error instanceof Error ? error.message : String(error);
-      await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.crashed, message)));
+      await failRun(deps.dataSource, run.id, RUN_ERROR_CODES.crashed, error instanceof Error ? error.message : String(error));
       return;
     }
     if (controller.signal.aborted) return;

@@ -15,7 +15,7 @@ import { presentRunOutcome, presentStoredResult } from '@server/presenters/cell-
 import { cancelActiveRuns, cancelRun, waitingJobIds } from './cancel-run.ts';
 import { executeRun } from './execute-run.ts';
 import { requestInputHash } from './request-hash.ts';
-import { runErrorOutput, settleActiveRuns } from './run-rows.ts';
+import { failRun, runErrorOutput } from './run-rows.ts';
 
 /**
  * A run cut short by its time budget depends on the machine's load and the budget: it is stored
@@ -101,8 +101,7 @@ async function queueRun(deps: RunCellDeps, run: AnalysisRunEntity): Promise<void
   try {
     await deps.queue.send(run.jobId as string, { runId: run.id }, run.budgetMs + DEFAULT_GRACE_MS);
   } catch (error) {
-    const message = 'The run could not be queued; try again in a moment';
-    await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, RUN_ERROR_CODES.lost, message)));
+    await failRun(deps.dataSource, run.id, RUN_ERROR_CODES.lost, 'The run could not be queued; try again in a moment');
     throw error;
   }
 }
@@ -241,7 +240,6 @@ async function failIfOverdue(deps: RunCellDeps, run: AnalysisRunEntity, hardLimi
     }
   }
   if (!failure) return;
-  const { code, message } = failure;
-  const ended = await deps.dataSource.transaction((manager) => settleActiveRuns(manager, { id: run.id }, 'failed', (r) => runErrorOutput(r, code, message)));
+  const ended = await failRun(deps.dataSource, run.id, failure.code, failure.message);
   await deps.queue.cancel(waitingJobIds(ended));
 }

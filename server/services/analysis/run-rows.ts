@@ -46,6 +46,14 @@ export async function settleActiveRuns(
   return runs;
 }
 
+/**
+ * Fails one run still in progress with a run error (the waiting request answers it); returns the
+ * run as it was, or nothing when it had already ended.
+ */
+export function failRun(dataSource: DataSource, runId: string, code: string, message: string): Promise<AnalysisRunEntity[]> {
+  return dataSource.transaction((manager) => settleActiveRuns(manager, { id: runId }, 'failed', (run) => runErrorOutput(run, code, message)));
+}
+
 /** How long an ended run's row is kept (its request has long been answered; the audit trail stays). */
 export const ENDED_RUN_RETENTION_MS = 60 * 60_000;
 
